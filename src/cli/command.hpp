@@ -1,0 +1,33 @@
+// How a subcommand plugs into `run()`: each src/cli/cmd_*.cpp defines one `add_*` function that
+// adds its CLI11 subcommand and a handler. The handler runs only when that subcommand was parsed.
+#pragma once
+
+#include <functional>
+#include <iosfwd>
+#include <vector>
+
+#include <CLI/CLI.hpp>
+
+#include "core/error.hpp"
+
+namespace standoff::cli {
+
+enum ExitCode : int { kOk = 0, kExceeds = 1, kBadInput = 2, kInternal = 3 };
+
+struct Command {
+  CLI::App* app = nullptr;
+  std::function<int(std::ostream& out, std::ostream& err)> handler;
+};
+
+using Commands = std::vector<Command>;
+
+// Where a command-line option's text came from, for InputError messages.
+inline Where option_where(const std::string& option) { return Where{"command line", 0, option}; }
+
+void add_limits(CLI::App& root, Commands& commands);
+void add_distance(CLI::App& root, Commands& commands);
+void add_wire(CLI::App& root, Commands& commands);
+void add_evaluate(CLI::App& root, Commands& commands);  // also `demo` and `field`
+void add_lines(CLI::App& root, Commands& commands);
+
+}  // namespace standoff::cli

@@ -1,0 +1,44 @@
+#include "cli/run.hpp"
+
+#include <algorithm>
+#include <ostream>
+
+#include "cli/command.hpp"
+
+namespace standoff::cli {
+
+int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& err) {
+  CLI::App app{"standoff — RF exposure and installation-safety evaluation for radio stations"};
+  app.name("standoff");
+  app.require_subcommand(1);
+  Commands commands;
+  add_limits(app, commands);
+  add_distance(app, commands);
+  add_wire(app, commands);
+  add_evaluate(app, commands);
+  add_lines(app, commands);
+
+  std::vector<std::string> reversed(args.rbegin(), args.rend());
+  try {
+    app.parse(reversed);
+  } catch (const CLI::ParseError& e) {
+    const int code = app.exit(e, out, err);
+    return code == 0 ? kOk : kBadInput;
+  }
+  for (const auto& c : commands) {
+    if (!c.app->parsed()) continue;
+    try {
+      return c.handler(out, err);
+    } catch (const InputError& e) {
+      err << "standoff: error: " << e.what() << "\n";
+      return kBadInput;
+    } catch (const std::exception& e) {
+      err << "standoff: internal error: " << e.what() << "\n";
+      return kInternal;
+    }
+  }
+  err << "standoff: no command given; try --help\n";
+  return kBadInput;
+}
+
+}  // namespace standoff::cli
