@@ -22,5 +22,10 @@ inline constexpr double dipole_gain = 1.64;
 inline constexpr double metres_per_foot = 0.3048;
 inline constexpr double metres_per_inch = 0.0254;
 inline constexpr double metres_per_mile = 1609.344;
+// Standard acceleration of gravity, m/s² — exact (3rd CGPM, 1901).
+inline constexpr double standard_gravity = 9.80665;
+// Mass and force conversions — exact by definition (international pound, 1959; lbf = lb × g_n).
+inline constexpr double kilograms_per_pound = 0.45359237;
+inline constexpr double newtons_per_pound_force = kilograms_per_pound * standard_gravity;
 
 }  // namespace standoff::constants

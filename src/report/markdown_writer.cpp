@@ -1,0 +1,164 @@
+// Markdown form of the evaluation record; drawings are referenced as the SVG files beside it.
+#include <fmt/format.h>
+
+#include "report/format.hpp"
+#include "report/writers.hpp"
+
+namespace standoff::report {
+
+std::string chart_file_name(const std::string& operation) { return "chart-" + slug(operation) + ".svg"; }
+
+namespace {
+
+// A table cell: pipes escaped, newlines flattened.
+std::string cell(const std::string& s) {
+  std::string out;
+  for (const char c : s) {
+    if (c == '|') out += "\\|";
+    else if (c == '\n') out += ' ';
+    else out += c;
+  }
+  return out;
+}
+
+std::string row(const std::vector<std::string>& cells) {
+  std::string s = "|";
+  for (const auto& c : cells) s += " " + cell(c) + " |";
+  return s + "\n";
+}
+
+std::string table(const std::vector<std::string>& header, const std::vector<std::vector<std::string>>& rows) {
+  std::string s = row(header) + "|";
+  for (std::size_t k = 0; k < header.size(); ++k) s += "---|";
+  s += "\n";
+  for (const auto& r : rows) s += row(r);
+  return s + "\n";
+}
+
+}  // namespace
+
+std::string to_markdown(const Record& r) {
+  const auto& ev = r.evaluation;
+  const std::string verdict = overall_verdict(r);
+  std::string md = "# RF exposure and installation-safety evaluation — " + r.meta.station_name + "\n\n";
+
+  std::vector<std::vector<std::string>> title = {
+      {"Station", r.meta.station_name},
+      {"Date", r.meta.date},
+      {"Tool version", "standoff " + r.meta.tool_version},
+      {"Input file", r.meta.input_file},
+      {"SHA-256 of the input file", "`" + r.meta.input_sha256 + "`"},
+  };
+  for (const auto& s : r.meta.standards) {
+    title.push_back({"Limits (" + s.id + ")", fmt::format("{}, {} ({}); table file {}; confidence: {}", s.document,
+                                                          s.table, s.year, s.file, s.confidence)});
+  }
+  title.push_back({"Overall verdict", "**" + fmtx::verdict_word(verdict) + "**"});
+  title.push_back({"Evaluated by", r.meta.evaluated_by.empty() ? "______________________________" : r.meta.evaluated_by});
+  title.push_back({"Signature", r.meta.signature.empty() ? "______________________________" : r.meta.signature});
+  md += table({"Item", "Value"}, title);
+
+  md += "## Verdict per operation\n\n";
+  std::vector<std::vector<std::string>> rows;
+  for (const auto& op : ev.operations) {
+    const bool e = op.evaluated_anywhere;
+    rows.push_back({op.name, fmtx::frequency(op.frequency_hz), fmtx::power(op.pep_w), fmtx::power(op.average_power_w),
+                    e ? fmtx::percent_up(op.worst.ratio) : "not evaluated",
+                    e ? fmtx::where(op.worst.at) + ", " + op.worst.zone + " (" + tier_name(op.worst.tier) + ")" : "—",
+                    fmtx::power_down(op.permitted_pep_w), "**" + fmtx::verdict_word(exposure::to_string(op.verdict)) + "**"});
+  }
+  md += table({"Operation", "Frequency", "PEP", "Average power at antenna", "Worst exposure (% of limit)", "Where, zone (tier)",
+               "Permitted PEP", "Verdict"},
+              rows);
+  md += "Exposure is given as a percentage of the limit of the tier that applies where it occurs (power ratio: "
+        "(E/E_lim)², (H/H_lim)² or S/S_lim). Percentages and distances are rounded up, permitted power down.\n\n";
+
+  if (!ev.groups.empty()) {
+    md += "### Sources that transmit together (47 CFR 1.1307(b)(5))\n\n";
+    rows.clear();
+    for (const auto& g : ev.groups) {
+      std::string names;
+      for (const auto& n : g.operations) names += (names.empty() ? "" : ", ") + n;
+      rows.push_back({g.name, names, g.evaluated_anywhere ? fmtx::percent_up(g.worst.ratio) : "not evaluated",
+                      g.evaluated_anywhere ? fmtx::where(g.worst.at) + ", " + g.worst.zone : "—",
+                      "**" + fmtx::verdict_word(exposure::to_string(g.verdict)) + "**"});
+    }
+    md += table({"Group", "Operations", "Worst sum of ratios", "Where", "Verdict"}, rows);
+  }
+
+  md += "## Site map\n\n![Site map: zones, antennas, supports, power lines and exposure contours](site-map.svg)\n\n";
+  md += "Contours show where the worst case over all operations (and the sum over each group) reaches 100 % "
+        "(solid) and 50 % (dashed) of the controlled (C, blue) and uncontrolled (U, vermillion) limits at body "
+        "height. Hatched grey cells were not evaluated — measure there or use another method.\n\n";
+
+  md += "## Operations\n\n";
+  for (const auto& op : ev.operations) {
+    md += "### " + op.name + "\n\n";
+    md += fmt::format("Transmitter {}, feed line {}, antenna {}; {}{}.\n\n", op.transmitter, op.feed_line, op.antenna,
+                      fmtx::frequency(op.frequency_hz), op.group.empty() ? "" : "; group " + op.group);
+    md += "**Power chain**\n\n";
+    rows.clear();
+    for (const auto& s : op.chain) rows.push_back({s.label, fmtx::power(s.power_w), s.detail});
+    md += table({"Step", "Power", "Detail"}, rows);
+    md += "**Model:** " + op.method + ". **Limits:** " + op.limits_source + ".\n\n";
+    rows.clear();
+    if (op.evaluated_anywhere) {
+      rows.push_back({"Worst exposure", fmtx::percent_up(op.worst.ratio) + " of the " + tier_name(op.worst.tier) +
+                                            " limit (" + op.worst.quantity + ")"});
+      rows.push_back({"Where", fmtx::where(op.worst.at) + " in " + op.worst.zone});
+    } else {
+      rows.push_back({"Worst exposure", "not evaluated — measure or use another method"});
+    }
+    rows.push_back({"Permitted PEP", fmtx::power_down(op.permitted_pep_w)});
+    rows.push_back({"Screening distance (far-field model)", fmtx::tiers(op.screening_distance)});
+    rows.push_back({"Detailed distance (worst direction, body height)", fmtx::tiers(op.detailed_distance)});
+    if (op.not_evaluated_count > 0) {
+      rows.push_back({"Not evaluated", fmt::format("{} place(s) too close for the model — measure or use another method",
+                                                   op.not_evaluated_count)});
+    }
+    md += table({"Result", "Value"}, rows);
+    if (!op.points.empty()) {
+      rows.clear();
+      for (const auto& p : op.points) {
+        rows.push_back({p.name, tier_name(p.tier), fmtx::where(p.at),
+                        p.evaluated ? fmtx::percent_up(p.ratio) : "not evaluated — " + p.reason});
+      }
+      md += table({"Point of interest", "Tier", "At", "Exposure (% of limit)"}, rows);
+    }
+    for (const auto& n : op.notes) md += "- " + n + "\n";
+    if (!op.notes.empty()) md += "\n";
+    if (!op.ratio_vs_distance.empty()) {
+      md += "![Exposure ratio versus distance, " + op.name + "](" + chart_file_name(op.name) + ")\n\n";
+    }
+  }
+
+  md += "## Power-line clearances\n\n";
+  if (r.lines) {
+    rows.clear();
+    for (const auto& c : r.lines->checks) {
+      rows.push_back({c.rule, c.subject, c.line, fmtx::distance_up(c.required_m), fmtx::distance_down(c.actual_m),
+                      "**" + fmtx::verdict_word(c.pass ? "pass" : "fail") + "**", c.source, c.note});
+    }
+    md += table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Source", "Note"}, rows);
+    for (const auto& a : r.lines->assumptions) md += "- Assumption: " + a + "\n";
+    if (!r.lines->assumptions.empty()) md += "\n";
+  } else {
+    md += "The station file describes no power lines or supports; no clearance checks were made.\n\n";
+  }
+
+  md += "## Assumptions and methods\n\n";
+  if (!ev.body_rule.empty()) md += "- Body line: " + ev.body_rule + "\n";
+  md += fmt::format("- Zone grid spacing: {} m.\n", ev.grid_spacing_m);
+  for (const auto& a : r.assumptions) md += "- " + a + "\n";
+  md += "\n";
+  rows.clear();
+  for (const auto& ref : r.references) rows.push_back({ref.topic, ref.source});
+  md += table({"Topic", "Method and source"}, rows);
+
+  md += "## Cautions\n\n";
+  for (const auto& c : all_cautions(r)) md += "- **Caution:** " + c + "\n";
+  md += "\n";
+  return md;
+}
+
+}  // namespace standoff::report

@@ -1,0 +1,48 @@
+// 3-D distances between segments and points, and plan (2-D) crossings of segments, used for the
+// clearance checks; and the distance from a segment to a power line whose conductor runs at a
+// known height, or anywhere from a lowest height upward when its height is unknown.
+// Method: closest points of two segments by clamped parametric minimisation (C. Ericson,
+// Real-Time Collision Detection, 2005, §5.1.9); plan crossings by orientation tests (ibid. §5.1.9.1).
+#pragma once
+
+#include <optional>
+#include <vector>
+
+#include <Eigen/Core>
+
+namespace standoff::siting {
+
+using Vec2 = Eigen::Vector2d;
+using Vec3 = Eigen::Vector3d;
+
+// Shortest distance between a point and the segment ab (metres in, metres out).
+double point_segment_distance(const Vec3& p, const Vec3& a, const Vec3& b);
+
+// Shortest distance between the segments p1q1 and p2q2 (either may be a single point).
+double segment_segment_distance(const Vec3& p1, const Vec3& q1, const Vec3& p2, const Vec3& q2);
+
+// Where the plan segments ab and cd cross or touch (any common point), if they do.
+std::optional<Vec2> plan_crossing(const Vec2& a, const Vec2& b, const Vec2& c, const Vec2& d);
+
+// Shortest plan distance between the segments ab and cd (0 if they cross).
+double plan_segment_distance(const Vec2& a, const Vec2& b, const Vec2& c, const Vec2& d);
+
+// A power line's conductor: a plan route at height `z_low`; when `height_known` is false the
+// conductor may be at any height from `z_low` upward (worst case over that range).
+struct ConductorGeometry {
+  std::vector<Vec2> path;
+  double z_low = 0.0;
+  bool height_known = true;
+};
+
+// Shortest 3-D distance from the segment ab to the conductor (worst case over the height range
+// when the height is unknown; the distance is convex in the height, so a golden-section search
+// on [z_low, max(z_low, a.z, b.z)] finds the minimum).
+double segment_conductor_distance(const Vec3& a, const Vec3& b, const ConductorGeometry& line);
+
+// Shortest plan distance from the plan segment ab to the conductor's route, and the first
+// crossing point if they cross.
+double plan_conductor_distance(const Vec2& a, const Vec2& b, const ConductorGeometry& line);
+std::optional<Vec2> plan_conductor_crossing(const Vec2& a, const Vec2& b, const ConductorGeometry& line);
+
+}  // namespace standoff::siting

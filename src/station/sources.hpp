@@ -1,0 +1,41 @@
+// Turns a loaded station into the evaluation's inputs: for each operation the power chain
+// (duty, time window per tier, feed line with the antenna's mismatch), the antenna model (thin-wire
+// method of moments for wire antennas, OET 65 screening models otherwise) and the limits at its frequency.
+#pragma once
+
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "em/solve.hpp"
+#include "exposure/evaluate.hpp"
+#include "limits/limits.hpp"
+#include "station/station.hpp"
+
+namespace standoff::station {
+
+struct BuildOptions {
+  std::optional<limits::Standard> standard;  // overrides the station file's standard (--standard)
+  std::optional<std::string> only_operation;  // build just this operation (for `standoff field`)
+};
+
+// Everything the evaluation needs, plus the solved wire models (for the report's map and notes).
+struct Built {
+  exposure::EvaluationInput input;
+  limits::Standard standard = limits::Standard::fcc;
+  const limits::LimitTable* table = nullptr;
+  // Per source: the wires drawn on the map (site frame), empty for screening antennas.
+  std::vector<std::vector<std::pair<Eigen::Vector3d, Eigen::Vector3d>>> wires;
+};
+
+// Throws InputError naming the station file, line and field for anything the tables or the antenna
+// model refuse (unknown mode or line class, frequency outside the limit table or the line's data,
+// antenna geometry the MoM engine cannot model).
+Built build(const Station& station, const BuildOptions& options = {});
+
+// em ground for a station ground class (ITU-R P.527 classes; "average" is the antenna literature's
+// convention 0.005 S/m, εr 13 — MOM-NOTES §4).
+em::Ground em_ground(GroundKind g);
+
+}  // namespace standoff::station

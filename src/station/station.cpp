@@ -1,0 +1,49 @@
+#include "station/station.hpp"
+
+namespace standoff::station {
+
+std::string to_string(GroundKind g) {
+  switch (g) {
+    case GroundKind::free_space: return "free_space";
+    case GroundKind::perfect: return "perfect";
+    case GroundKind::average: return "average";
+    case GroundKind::poor: return "poor";
+    case GroundKind::good: return "good";
+    case GroundKind::sea_water: return "sea_water";
+  }
+  return "average";
+}
+
+std::string to_string(AntennaKind k) {
+  switch (k) {
+    case AntennaKind::dipole: return "dipole";
+    case AntennaKind::inverted_v: return "inverted_v";
+    case AntennaKind::vertical: return "vertical";
+    case AntennaKind::yagi: return "yagi";
+    case AntennaKind::gain_only: return "gain";
+    case AntennaKind::collinear: return "collinear";
+    case AntennaKind::aperture: return "aperture";
+  }
+  return "gain";
+}
+
+bool is_wire(AntennaKind k) {
+  return k == AntennaKind::dipole || k == AntennaKind::inverted_v || k == AntennaKind::vertical ||
+         k == AntennaKind::yagi;
+}
+
+namespace {
+template <class T>
+const T* find(const std::vector<T>& v, const std::string& name) {
+  for (const auto& x : v)
+    if (x.name == name) return &x;
+  return nullptr;
+}
+}  // namespace
+
+const Transmitter* Station::transmitter(const std::string& n) const { return find(transmitters, n); }
+const FeedLine* Station::feed_line(const std::string& n) const { return find(feed_lines, n); }
+const Antenna* Station::antenna(const std::string& n) const { return find(antennas, n); }
+const Operation* Station::operation(const std::string& n) const { return find(operations, n); }
+
+}  // namespace standoff::station

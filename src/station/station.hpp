@@ -1,0 +1,133 @@
+// The station model: site (boundary, buildings, zones, points of interest, ground), transmitters,
+// feed lines, antennas and operations, as read from a station file (schema: docs/user-guide.md).
+#pragma once
+
+// Plain data; every quantity in SI (unit in the member name) or a Boost.Units quantity. Each item
+// keeps the line it came from so that later checks can still name file:line:field.
+
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "core/units.hpp"
+#include "exposure/geometry.hpp"
+#include "limits/limits.hpp"
+#include "siting/site.hpp"
+
+namespace standoff::station {
+
+using exposure::PlanPoint;
+using exposure::Polygon;  // closed implicitly (last vertex joins the first)
+struct Point3 {
+  double x_m = 0.0;
+  double y_m = 0.0;
+  double z_m = 0.0;
+};
+enum class GroundKind { free_space, perfect, average, poor, good, sea_water };
+std::string to_string(GroundKind g);
+
+struct Building {
+  std::string name;
+  Polygon footprint;
+  std::vector<double> floors_m;  // floor heights above ground where people stand
+  double height_m = 0.0;         // roof height
+  int line = 0;
+};
+
+struct Zone {
+  std::string name;
+  Polygon polygon;               // from `polygon` or the building's footprint
+  std::string building;          // empty unless the zone is a building's interior
+  limits::Tier tier = limits::Tier::uncontrolled;
+  std::vector<double> floors_m;  // body line from each floor to floor + 2 m (default: ground only)
+  int line = 0;
+};
+
+struct PointOfInterest {
+  std::string name;
+  Point3 at;
+  limits::Tier tier = limits::Tier::uncontrolled;
+  int line = 0;
+};
+
+struct Site {
+  GroundKind ground = GroundKind::average;
+  Polygon boundary;
+  std::vector<Building> buildings;
+  std::vector<Zone> zones;
+  std::vector<PointOfInterest> points;
+};
+
+struct Transmitter {
+  std::string name;
+  units::Power pep;
+  int line = 0;
+};
+
+struct FeedLine {
+  std::string name;
+  std::string line_class;           // a class from tables/feedlines.toml, e.g. "rg-213", "ladder-450"
+  units::Length length;
+  std::optional<double> swr;        // stated SWR at the antenna; otherwise from the antenna model
+  int line = 0;
+};
+
+// Wire antennas are modelled by the method of moments; the others by screening models.
+enum class AntennaKind { dipole, inverted_v, vertical, yagi, gain_only, collinear, aperture };
+std::string to_string(AntennaKind k);
+bool is_wire(AntennaKind k);
+
+struct Antenna {
+  std::string name;
+  AntennaKind kind = AntennaKind::dipole;
+  PlanPoint position;               // plan position of the feed point / centre / base
+  double height_m = 0.0;            // feed point (or centre) height above ground
+  double azimuth_rad = 0.0;         // wire direction or boresight, clockwise from north
+  std::optional<double> length_m;       // dipole/inverted-V total length, vertical height, collinear length
+  std::optional<double> wire_diameter_m;
+  std::optional<double> apex_angle_rad;  // inverted V: included angle between the legs
+  std::optional<int> elements;           // yagi
+  int radials = 0;                       // elevated vertical: number of radials
+  std::optional<double> radial_length_m;  // elevated vertical: length of each radial
+  std::optional<double> band_centre_hz;  // yagi design frequency
+  std::optional<units::Gain> gain;       // gain-only, collinear, aperture (if not from area)
+  std::optional<double> diameter_m;      // aperture
+  std::optional<double> efficiency;      // aperture (0..1)
+  std::optional<double> beamwidth_rad;   // collinear/panel horizontal beamwidth (omni if absent)
+  int line = 0;
+};
+
+struct Operation {
+  std::string name;
+  std::string transmitter;
+  std::string feed_line;            // may be empty: antenna connected directly
+  std::string antenna;
+  units::Frequency frequency;
+  std::string mode;                 // a mode from tables/duty.toml ("ssb", "cw", "fm", ...), or empty
+  std::optional<double> duty;       // explicit duty factor instead of a mode
+  std::optional<units::Time> on;    // operating pattern: transmit `on`, then listen `off`, repeating
+  std::optional<units::Time> off;
+  std::string group;                // sources transmitting at the same time
+  int line = 0;
+};
+
+struct Station {
+  std::string file;                 // where it was read from (for messages)
+  std::string name;
+  std::optional<limits::Standard> standard;
+  std::string evaluator;
+  Site site;
+  std::vector<Transmitter> transmitters;
+  std::vector<FeedLine> feed_lines;
+  std::vector<Antenna> antennas;
+  std::vector<Operation> operations;
+  siting::SiteElements installation;  // [[power_line]], [[support]], [[span]] (issue 6)
+
+  const Transmitter* transmitter(const std::string& name) const;
+  const FeedLine* feed_line(const std::string& name) const;
+  const Antenna* antenna(const std::string& name) const;
+  const Operation* operation(const std::string& name) const;
+};
+
+}  // namespace standoff::station

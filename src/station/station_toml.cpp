@@ -1,0 +1,504 @@
+#include "station/station_toml.hpp"
+
+#include <fstream>
+#include <set>
+#include <sstream>
+
+#include <toml++/toml.h>
+
+#include "core/constants.hpp"
+#include "core/quantity_parse.hpp"
+#include "io/embedded.hpp"
+#include "siting/siting_toml.hpp"
+
+namespace standoff::station {
+namespace {
+
+int line_of(const toml::node& n) { return static_cast<int>(n.source().begin.line); }
+
+// Reads one table with a fixed set of keys; every access names file:line:field.
+class Reader {
+ public:
+  Reader(const toml::table& t, std::string file, std::string path, std::set<std::string> allowed)
+      : t_(t), file_(std::move(file)), path_(std::move(path)) {
+    for (const auto& [k, v] : t_) {
+      const std::string key(k.str());
+      if (!allowed.contains(key)) {
+        std::string list;
+        for (const auto& a : allowed) list += (list.empty() ? "" : ", ") + a;
+        throw InputError(where(key, line_of(v)), "unknown key (typo?); allowed here: " + list);
+      }
+    }
+  }
+
+  Where where(const std::string& key, int line = 0) const {
+    if (line == 0) {
+      if (const toml::node* n = t_.get(key)) line = line_of(*n);
+      else line = line_of(t_);
+    }
+    return Where{file_, line, path_.empty() ? key : path_ + "." + key};
+  }
+  Where where_table() const { return Where{file_, line_of(t_), path_}; }
+  int line() const { return line_of(t_); }
+  bool has(const std::string& key) const { return t_.contains(key); }
+  const toml::node* node(const std::string& key) const { return t_.get(key); }
+
+  std::optional<std::string> opt_string(const std::string& key) const {
+    const toml::node* n = t_.get(key);
+    if (!n) return std::nullopt;
+    if (const auto* s = n->as_string()) return s->get();
+    throw InputError(where(key), "expected a string in quotes");
+  }
+  std::string string(const std::string& key) const {
+    auto s = opt_string(key);
+    if (!s) throw InputError(where_table_key(key), "missing (required)");
+    return *s;
+  }
+  std::string name() const {
+    std::string s = string("name");
+    if (s.empty()) throw InputError(where("name"), "must not be empty");
+    return s;
+  }
+  std::optional<int> opt_int(const std::string& key) const {
+    const toml::node* n = t_.get(key);
+    if (!n) return std::nullopt;
+    if (const auto* i = n->as_integer()) return static_cast<int>(i->get());
+    throw InputError(where(key), "expected a whole number");
+  }
+  // A quantity string parsed by `parse`, e.g. parse_length.
+  template <class F>
+  auto opt_quantity(const std::string& key, F parse) const -> std::optional<decltype(parse(std::string_view{}, Where{}))> {
+    auto s = opt_quantity_text(key);
+    if (!s) return std::nullopt;
+    return parse(*s, where(key));
+  }
+  template <class F>
+  auto quantity(const std::string& key, F parse) const {
+    auto q = opt_quantity(key, parse);
+    if (!q) throw InputError(where_table_key(key), "missing (required)");
+    return *q;
+  }
+  std::optional<std::string> opt_quantity_text(const std::string& key) const {
+    const toml::node* n = t_.get(key);
+    if (!n) return std::nullopt;
+    if (const auto* s = n->as_string()) return s->get();
+    throw InputError(where(key), "expected a quantity with its unit in quotes, e.g. \"12 m\"");
+  }
+  Where where_table_key(const std::string& key) const {
+    return Where{file_, line_of(t_), path_.empty() ? key : path_ + "." + key};
+  }
+  const std::string& file() const { return file_; }
+  const std::string& path() const { return path_; }
+
+ private:
+  const toml::table& t_;
+  std::string file_;
+  std::string path_;
+};
+
+double len(std::string_view text, const Where& w) { return parse_length(text, w, Sign::any).value(); }
+
+// ["12 m", "-4 m"]
+PlanPoint plan_point(const toml::node& n, const Where& w) {
+  const auto* a = n.as_array();
+  if (!a || a->size() != 2)
+    throw InputError(w, "expected a plan point [\"x m\", \"y m\"]");
+  PlanPoint p;
+  double v[2];
+  for (std::size_t i = 0; i < 2; ++i) {
+    const auto* s = (*a)[i].as_string();
+    if (!s) throw InputError(w, "expected a plan point [\"x m\", \"y m\"] of quantities in quotes");
+    v[i] = len(s->get(), w);
+  }
+  p.x_m = v[0];
+  p.y_m = v[1];
+  return p;
+}
+
+Point3 point3(const toml::node& n, const Where& w) {
+  const auto* a = n.as_array();
+  if (!a || a->size() != 3) throw InputError(w, "expected a point [\"x m\", \"y m\", \"z m\"]");
+  double v[3];
+  for (std::size_t i = 0; i < 3; ++i) {
+    const auto* s = (*a)[i].as_string();
+    if (!s) throw InputError(w, "expected a point [\"x m\", \"y m\", \"z m\"] of quantities in quotes");
+    v[i] = len(s->get(), w);
+  }
+  return Point3{v[0], v[1], v[2]};
+}
+
+Polygon polygon(const Reader& r, const std::string& key) {
+  const toml::node* n = r.node(key);
+  if (!n) throw InputError(r.where_table_key(key), "missing (required)");
+  const Where w = r.where(key);
+  const auto* a = n->as_array();
+  if (!a) throw InputError(w, "expected a polygon: an array of plan points [[\"x m\", \"y m\"], ...]");
+  Polygon poly;
+  for (const auto& v : *a) poly.push_back(plan_point(v, Where{w.file, line_of(v), w.field}));
+  if (poly.size() < 3) throw InputError(w, "a polygon needs at least 3 vertices");
+  if (auto bad = exposure::self_intersection(poly))
+    throw InputError(w, "polygon is self-intersecting (edges " + std::to_string(bad->first + 1) + " and " +
+                            std::to_string(bad->second + 1) + " cross or a vertex repeats)");
+  if (std::abs(exposure::signed_area(poly)) <= 0.0) throw InputError(w, "polygon has no area");
+  return poly;
+}
+
+std::vector<double> heights(const Reader& r, const std::string& key) {
+  const toml::node* n = r.node(key);
+  const Where w = r.where(key);
+  const auto* a = n ? n->as_array() : nullptr;
+  if (!a || a->empty()) throw InputError(w, "expected an array of heights, e.g. [\"0 m\", \"2.8 m\"]");
+  std::vector<double> out;
+  for (const auto& v : *a) {
+    const auto* s = v.as_string();
+    if (!s) throw InputError(w, "expected heights in quotes with their unit, e.g. \"2.8 m\"");
+    out.push_back(parse_length(s->get(), w).value());
+  }
+  return out;
+}
+
+limits::Tier tier(const Reader& r) {
+  const std::string s = r.string("tier");
+  auto t = limits::tier_from_string(s);
+  if (!t) throw InputError(r.where("tier"), "unknown tier \"" + s + "\": expected controlled or uncontrolled");
+  return *t;
+}
+
+const toml::array* array_of_tables(const toml::table& root, const std::string& key, const std::string& file) {
+  const toml::node* n = root.get(key);
+  if (!n) return nullptr;
+  const auto* a = n->as_array();
+  if (!a || !a->is_array_of_tables())
+    throw InputError(Where{file, line_of(*n), key}, "expected an array of tables written [[" + key + "]]");
+  return a;
+}
+
+template <class T>
+void check_unique(const std::vector<T>& items, const std::string& what, const std::string& file) {
+  std::set<std::string> seen;
+  for (const auto& it : items)
+    if (!seen.insert(it.name).second)
+      throw InputError(Where{file, it.line, what + ".name"}, "duplicate name \"" + it.name + "\"");
+}
+
+std::optional<AntennaKind> antenna_kind(const std::string& s) {
+  if (s == "dipole") return AntennaKind::dipole;
+  if (s == "inverted_v") return AntennaKind::inverted_v;
+  if (s == "vertical") return AntennaKind::vertical;
+  if (s == "yagi") return AntennaKind::yagi;
+  if (s == "gain") return AntennaKind::gain_only;
+  if (s == "collinear") return AntennaKind::collinear;
+  if (s == "aperture") return AntennaKind::aperture;
+  return std::nullopt;
+}
+
+std::optional<GroundKind> ground_kind(const std::string& s) {
+  if (s == "free_space") return GroundKind::free_space;
+  if (s == "perfect") return GroundKind::perfect;
+  if (s == "average") return GroundKind::average;
+  if (s == "poor") return GroundKind::poor;
+  if (s == "good") return GroundKind::good;
+  if (s == "sea_water") return GroundKind::sea_water;
+  return std::nullopt;
+}
+
+std::string indexed(const std::string& key, std::size_t i) { return key + "[" + std::to_string(i) + "]"; }
+
+Antenna read_antenna(const Reader& r) {
+  Antenna a;
+  a.line = r.line();
+  a.name = r.name();
+  const std::string kind = r.string("kind");
+  auto k = antenna_kind(kind);
+  if (!k)
+    throw InputError(r.where("kind"),
+                     "unknown antenna kind \"" + kind + "\": expected dipole, inverted_v, vertical, yagi, gain, "
+                     "collinear or aperture");
+  a.kind = *k;
+  a.position = plan_point(*[&]() -> const toml::node* {
+    if (!r.has("position")) throw InputError(r.where_table_key("position"), "missing (required)");
+    return r.node("position");
+  }(), r.where("position"));
+  const double h = r.quantity("height", [](std::string_view t, const Where& w) { return len(t, w); });
+  if (h < 0.0) throw InputError(r.where("height"), "antenna is below ground (height " + std::to_string(h) + " m)");
+  a.height_m = h;
+  if (auto az = r.opt_quantity("azimuth", parse_angle)) a.azimuth_rad = az->value();
+  if (auto l = r.opt_quantity("length", [](std::string_view t, const Where& w) { return parse_length(t, w); }))
+    a.length_m = l->value();
+  if (auto d = r.opt_quantity("wire_diameter", [](std::string_view t, const Where& w) { return parse_length(t, w); }))
+    a.wire_diameter_m = d->value();
+  if (auto ang = r.opt_quantity("apex_angle", parse_angle)) a.apex_angle_rad = ang->value();
+  a.elements = r.opt_int("elements");
+  if (auto n = r.opt_int("radials")) {
+    if (*n < 0 || *n > 64) throw InputError(r.where("radials"), "must be 0 to 64");
+    a.radials = *n;
+  }
+  if (auto l = r.opt_quantity("radial_length", [](std::string_view t, const Where& w) { return parse_length(t, w); }))
+    a.radial_length_m = l->value();
+  if (auto f = r.opt_quantity("band_centre", parse_frequency)) a.band_centre_hz = f->value();
+  a.gain = r.opt_quantity("gain", parse_gain);
+  if (auto d = r.opt_quantity("diameter", [](std::string_view t, const Where& w) { return parse_length(t, w); }))
+    a.diameter_m = d->value();
+  if (auto e = r.opt_quantity("efficiency", parse_fraction)) a.efficiency = e->value;
+  if (auto b = r.opt_quantity("beamwidth", parse_angle)) a.beamwidth_rad = b->value();
+
+  auto need = [&](bool present, const std::string& key) {
+    if (!present) throw InputError(r.where_table_key(key), "missing (required for kind = \"" + kind + "\")");
+  };
+  auto positive = [&](const std::optional<double>& v, const std::string& key) {
+    if (v && !(*v > 0.0)) throw InputError(r.where(key), "must be greater than zero");
+  };
+  positive(a.length_m, "length");
+  positive(a.wire_diameter_m, "wire_diameter");
+  positive(a.diameter_m, "diameter");
+  switch (a.kind) {
+    case AntennaKind::dipole: need(a.length_m.has_value(), "length"); break;
+    case AntennaKind::vertical:
+      need(a.length_m.has_value(), "length");
+      if (a.height_m > 0.0 && a.radials > 0) need(a.radial_length_m.has_value(), "radial_length");
+      if (a.height_m > 0.0 && a.radials == 0)
+        throw InputError(r.where_table_key("radials"),
+                         "an elevated vertical (height above 0 m) needs radials and radial_length");
+      break;
+    case AntennaKind::inverted_v:
+      need(a.length_m.has_value(), "length");
+      need(a.apex_angle_rad.has_value(), "apex_angle");
+      if (!(*a.apex_angle_rad > 0.0 && *a.apex_angle_rad < constants::pi))
+        throw InputError(r.where("apex_angle"), "must be between 0 and 180 deg");
+      break;
+    case AntennaKind::yagi:
+      need(a.elements.has_value(), "elements");
+      need(a.band_centre_hz.has_value(), "band_centre");
+      if (*a.elements < 2 || *a.elements > 8) throw InputError(r.where("elements"), "must be 2 to 8");
+      break;
+    case AntennaKind::gain_only: need(a.gain.has_value(), "gain"); break;
+    case AntennaKind::collinear:
+      need(a.gain.has_value(), "gain");
+      need(a.length_m.has_value(), "length");
+      break;
+    case AntennaKind::aperture:
+      need(a.diameter_m.has_value(), "diameter");
+      if (!a.gain && !a.efficiency) throw InputError(r.where_table_key("efficiency"), "give efficiency or gain");
+      break;
+  }
+  return a;
+}
+
+
+Operation read_operation(const Reader& r) {
+  Operation o;
+  o.line = r.line();
+  o.name = r.name();
+  o.transmitter = r.string("transmitter");
+  o.feed_line = r.opt_string("feed_line").value_or("");
+  o.antenna = r.string("antenna");
+  o.frequency = r.quantity("frequency", parse_frequency);
+  if (!(o.frequency.value() > 0.0)) throw InputError(r.where("frequency"), "must be greater than zero");
+  o.mode = r.opt_string("mode").value_or("");
+  if (auto d = r.opt_quantity("duty", parse_fraction)) o.duty = d->value;
+  if (o.mode.empty() == !o.duty.has_value())
+    throw InputError(r.where_table_key("mode"), "give exactly one of mode (e.g. \"ssb\") or duty (e.g. \"40 %\")");
+  o.on = r.opt_quantity("on", parse_time);
+  o.off = r.opt_quantity("off", parse_time);
+  if (o.on.has_value() != o.off.has_value())
+    throw InputError(r.where_table_key(o.on ? "off" : "on"), "give both on and off (the operating pattern), or neither");
+  if (o.on && !(o.on->value() > 0.0)) throw InputError(r.where("on"), "must be greater than zero");
+  o.group = r.opt_string("group").value_or("");
+  return o;
+}
+
+}  // namespace
+
+std::string_view demo_station_text() {
+  auto t = io::embedded_file(kDemoStationPath);
+  return t ? *t : std::string_view{};
+}
+
+Station load_station_file(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
+  std::ostringstream ss;
+  ss << in.rdbuf();
+  return load_station(ss.str(), path);
+}
+
+Station load_station(std::string_view toml_text, const std::string& file) {
+  toml::table root;
+  try {
+    root = toml::parse(toml_text, file);
+  } catch (const toml::parse_error& e) {
+    throw InputError(Where{file, static_cast<int>(e.source().begin.line), ""},
+                     "not valid TOML: " + std::string(e.description()));
+  }
+  Reader top(root, file, "",
+             {"station", "site", "building", "zone", "point", "transmitter", "feed_line", "antenna", "operation",
+              "power_line", "support", "span"});
+  Station st;
+  st.file = file;
+
+  // [station]
+  const toml::table* station_t = root["station"].as_table();
+  if (!station_t) throw InputError(Where{file, 1, "station"}, "missing the [station] table");
+  {
+    Reader r(*station_t, file, "station", {"name", "standard", "evaluator"});
+    st.name = r.name();
+    if (auto s = r.opt_string("standard")) {
+      auto id = limits::standard_from_string(*s);
+      if (!id)
+        throw InputError(r.where("standard"), "unknown standard \"" + *s + "\": expected fcc, icnirp2020, icnirp1998 or sc6");
+      st.standard = *id;
+    }
+    st.evaluator = r.opt_string("evaluator").value_or("");
+  }
+
+  // [site]
+  const toml::table* site_t = root["site"].as_table();
+  if (!site_t) throw InputError(Where{file, 1, "site"}, "missing the [site] table");
+  {
+    Reader r(*site_t, file, "site", {"ground", "boundary"});
+    if (auto g = r.opt_string("ground")) {
+      auto k = ground_kind(*g);
+      if (!k)
+        throw InputError(r.where("ground"),
+                         "unknown ground \"" + *g + "\": expected free_space, perfect, average, poor, good or sea_water");
+      st.site.ground = *k;
+    }
+    st.site.boundary = polygon(r, "boundary");
+  }
+
+  if (const auto* a = array_of_tables(root, "building", file)) {
+    std::size_t i = 0;
+    for (const auto& n : *a) {
+      Reader r(*n.as_table(), file, indexed("building", i++), {"name", "footprint", "floors", "height"});
+      Building b;
+      b.line = r.line();
+      b.name = r.name();
+      b.footprint = polygon(r, "footprint");
+      b.floors_m = r.has("floors") ? heights(r, "floors") : std::vector<double>{0.0};
+      b.height_m = r.quantity("height", [](std::string_view t, const Where& w) { return parse_length(t, w); }).value();
+      for (double f : b.floors_m)
+        if (f >= b.height_m) throw InputError(r.where("floors"), "a floor is at or above the building's height");
+      st.site.buildings.push_back(std::move(b));
+    }
+    check_unique(st.site.buildings, "building", file);
+  }
+
+  if (const auto* a = array_of_tables(root, "zone", file)) {
+    std::size_t i = 0;
+    for (const auto& n : *a) {
+      Reader r(*n.as_table(), file, indexed("zone", i++), {"name", "polygon", "building", "tier", "floors"});
+      Zone z;
+      z.line = r.line();
+      z.name = r.name();
+      z.tier = tier(r);
+      z.building = r.opt_string("building").value_or("");
+      if (!z.building.empty()) {
+        if (r.has("polygon")) throw InputError(r.where("polygon"), "give either polygon or building, not both");
+        const Building* b = nullptr;
+        for (const auto& bb : st.site.buildings)
+          if (bb.name == z.building) b = &bb;
+        if (!b) throw InputError(r.where("building"), "unknown building \"" + z.building + "\"");
+        z.polygon = b->footprint;
+        z.floors_m = b->floors_m;
+      } else {
+        z.polygon = polygon(r, "polygon");
+        z.floors_m = {0.0};
+      }
+      if (r.has("floors")) z.floors_m = heights(r, "floors");
+      st.site.zones.push_back(std::move(z));
+    }
+    check_unique(st.site.zones, "zone", file);
+  }
+  if (st.site.zones.empty())
+    throw InputError(Where{file, 1, "zone"}, "no [[zone]]: describe at least one place where people can be");
+
+  if (const auto* a = array_of_tables(root, "point", file)) {
+    std::size_t i = 0;
+    for (const auto& n : *a) {
+      Reader r(*n.as_table(), file, indexed("point", i++), {"name", "at", "tier"});
+      PointOfInterest p;
+      p.line = r.line();
+      p.name = r.name();
+      if (!r.has("at")) throw InputError(r.where_table_key("at"), "missing (required)");
+      p.at = point3(*r.node("at"), r.where("at"));
+      if (p.at.z_m < 0.0) throw InputError(r.where("at"), "point is below ground");
+      p.tier = r.has("tier") ? tier(r) : limits::Tier::uncontrolled;
+      st.site.points.push_back(p);
+    }
+    check_unique(st.site.points, "point", file);
+  }
+
+  if (const auto* a = array_of_tables(root, "transmitter", file)) {
+    std::size_t i = 0;
+    for (const auto& n : *a) {
+      Reader r(*n.as_table(), file, indexed("transmitter", i++), {"name", "pep"});
+      Transmitter t;
+      t.line = r.line();
+      t.name = r.name();
+      t.pep = r.quantity("pep", parse_power);
+      if (!(t.pep.value() > 0.0)) throw InputError(r.where("pep"), "must be greater than zero");
+      st.transmitters.push_back(t);
+    }
+    check_unique(st.transmitters, "transmitter", file);
+  }
+
+  if (const auto* a = array_of_tables(root, "feed_line", file)) {
+    std::size_t i = 0;
+    for (const auto& n : *a) {
+      Reader r(*n.as_table(), file, indexed("feed_line", i++), {"name", "class", "length", "swr"});
+      FeedLine f;
+      f.line = r.line();
+      f.name = r.name();
+      f.line_class = r.string("class");
+      f.length = r.quantity("length", [](std::string_view t, const Where& w) { return parse_length(t, w); });
+      if (const toml::node* sw = r.node("swr")) {
+        const auto v = sw->value<double>();
+        if (!v || !(*v >= 1.0)) throw InputError(r.where("swr"), "expected a number of 1 or more, e.g. swr = 1.5");
+        f.swr = *v;
+      }
+      st.feed_lines.push_back(f);
+    }
+    check_unique(st.feed_lines, "feed_line", file);
+  }
+
+  if (const auto* a = array_of_tables(root, "antenna", file)) {
+    std::size_t i = 0;
+    for (const auto& n : *a) {
+      Reader r(*n.as_table(), file, indexed("antenna", i++),
+               {"name", "kind", "position", "height", "azimuth", "length", "wire_diameter", "apex_angle", "elements",
+                "band_centre", "gain", "diameter", "efficiency", "beamwidth", "radials", "radial_length"});
+      Antenna ant = read_antenna(r);
+      for (const auto& b : st.site.buildings)
+        if (exposure::inside(b.footprint, ant.position) && ant.height_m < b.height_m)
+          throw InputError(r.where("position"), "antenna is inside building \"" + b.name +
+                                                    "\" (below its roof height); put it on the roof or outside");
+      st.antennas.push_back(std::move(ant));
+    }
+    check_unique(st.antennas, "antenna", file);
+  }
+
+  if (const auto* a = array_of_tables(root, "operation", file)) {
+    std::size_t i = 0;
+    for (const auto& n : *a) {
+      Reader r(*n.as_table(), file, indexed("operation", i++),
+               {"name", "transmitter", "feed_line", "antenna", "frequency", "mode", "duty", "on", "off", "group"});
+      Operation o = read_operation(r);
+      if (!st.transmitter(o.transmitter))
+        throw InputError(r.where("transmitter"), "unknown transmitter \"" + o.transmitter + "\"");
+      if (!o.feed_line.empty() && !st.feed_line(o.feed_line))
+        throw InputError(r.where("feed_line"), "unknown feed line \"" + o.feed_line + "\"");
+      if (!st.antenna(o.antenna)) throw InputError(r.where("antenna"), "unknown antenna \"" + o.antenna + "\"");
+      st.operations.push_back(std::move(o));
+    }
+    check_unique(st.operations, "operation", file);
+  }
+  if (st.operations.empty())
+    throw InputError(Where{file, 1, "operation"}, "no [[operation]]: nothing to evaluate");
+
+  // Installation elements (issue 6): parsed and validated by the siting module.
+  st.installation = siting::parse_site_elements(root, file);
+
+  return st;
+}
+
+}  // namespace standoff::station
