@@ -77,7 +77,7 @@ Eigen::Vector3cd radiation_vector(const std::vector<Source>& src, const Eigen::V
 // rE (peak, V) with phase reference at `origin`.
 Eigen::Vector3cd far_e(const Radiator& r, const Eigen::Vector3d& dir) {
   const cd factor(0.0, -r.omega * constants::mu0 / (4.0 * pi));
-  auto perp = [&](const Eigen::Vector3cd& n) { return Eigen::Vector3cd(n - n.dot(dir.cast<cd>()) * dir.cast<cd>()); };
+  auto perp = [&](const Eigen::Vector3cd& n) { return Eigen::Vector3cd(n - dir.cast<cd>().dot(n) * dir.cast<cd>()); };
   Eigen::Vector3cd e = factor * perp(radiation_vector(r.direct, dir, r.k, r.centroid));
   if (r.ground == GroundKind::free_space) return e;
   if (dir.z() < 0.0) return Eigen::Vector3cd::Zero();
@@ -87,7 +87,7 @@ Eigen::Vector3cd far_e(const Radiator& r, const Eigen::Vector3d& dir) {
     Eigen::Vector3d phi = Eigen::Vector3d::UnitZ().cross(dir);
     if (phi.norm() < 1e-12) phi = Eigen::Vector3d::UnitX();
     phi.normalize();
-    const Eigen::Vector3cd te = ei.dot(phi.cast<cd>()) * phi.cast<cd>();
+    const Eigen::Vector3cd te = phi.cast<cd>().dot(ei) * phi.cast<cd>();
     ei = -rh * te + rv * (ei - te);
   }
   return e + ei;
@@ -194,7 +194,7 @@ std::vector<FieldPoint> near_fields(const Solution& solution, std::span<const Ei
         if (phi.norm() < 1e-12) phi = Eigen::Vector3d::UnitX();
         phi.normalize();
         const Eigen::Vector3cd pc = phi.cast<cd>();
-        const Eigen::Vector3cd e_te = es.dot(pc) * pc, h_tm = hs.dot(pc) * pc;
+        const Eigen::Vector3cd e_te = pc.dot(es) * pc, h_tm = pc.dot(hs) * pc;
         es = -rh * e_te + rv * (es - e_te);
         hs = rv * h_tm - rh * (hs - h_tm);
       }

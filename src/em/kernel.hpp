@@ -8,6 +8,7 @@
 #include <utility>
 
 #include <Eigen/Core>
+#include <Eigen/Geometry>
 
 namespace standoff::em::kernel {
 

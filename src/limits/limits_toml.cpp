@@ -129,6 +129,8 @@ struct BandRead {
   Band band;
   std::vector<std::string> declared_steps;  // quantities with a published step at f_min
   int steps_line = 0;
+  int f_min_line = 0;
+  std::array<int, 3> quantity_line{};  // per kQuantities entry
 };
 
 BandRead read_band(const toml::table& t, const Ctx& ctx) {
@@ -139,6 +141,7 @@ BandRead read_band(const toml::table& t, const Ctx& ctx) {
   Band& b = r.band;
   b.source_line = ctx.line;
   b.f_min_mhz = get_positive(require(t, ctx, "f_min_mhz"), ctx, "f_min_mhz");
+  r.f_min_line = line_of(*t.get("f_min_mhz"), ctx.line);
   b.f_max_mhz = get_positive(require(t, ctx, "f_max_mhz"), ctx, "f_max_mhz");
   if (b.f_max_mhz <= b.f_min_mhz)
     ctx.fail_at(*t.get("f_max_mhz"), "f_max_mhz",
@@ -153,6 +156,11 @@ BandRead read_band(const toml::table& t, const Ctx& ctx) {
     PowerLaw law = get_law(*s_mw, ctx, "s_mw_per_cm2");
     law.a *= kWPerM2PerMWPerCm2;
     b.s_w_per_m2 = law;
+  }
+  for (std::size_t i = 0; i < kQuantities.size(); ++i) {
+    const toml::node* n = t.get(kQuantities[i]);
+    if (kQuantities[i] == "s_w_per_m2" && n == nullptr) n = s_mw;
+    r.quantity_line[i] = n ? line_of(*n, ctx.line) : ctx.line;
   }
   if (!b.e_v_per_m && !b.h_a_per_m && !b.s_w_per_m2)
     ctx.fail("e_v_per_m", "a band needs at least one of e_v_per_m, h_a_per_m, s_w_per_m2 (or s_mw_per_cm2)");
@@ -188,7 +196,7 @@ void check_bands(const std::vector<BandRead>& bands, const Ctx& tier_ctx) {
   for (std::size_t i = 1; i < bands.size(); ++i) {
     const Band& lo = bands[i - 1].band;
     const Band& hi = bands[i].band;
-    Ctx ctx{tier_ctx.file, tier_ctx.path + ".band[" + std::to_string(i + 1) + "]", hi.source_line};
+    Ctx ctx{tier_ctx.file, tier_ctx.path + ".band[" + std::to_string(i + 1) + "]", bands[i].f_min_line};
     if (hi.f_min_mhz < lo.f_min_mhz)
       ctx.fail("f_min_mhz", "bands out of order: " + num(hi.f_min_mhz) + " MHz follows a band starting at " +
                                 num(lo.f_min_mhz) + " MHz (list bands by rising frequency)");
@@ -200,7 +208,8 @@ void check_bands(const std::vector<BandRead>& bands, const Ctx& tier_ctx) {
                                 " MHz but this one starts at " + num(hi.f_min_mhz) + " MHz");
     const double f = hi.f_min_mhz;
     const auto& declared = bands[i].declared_steps;
-    for (std::string_view q : kQuantities) {
+    for (std::size_t k = 0; k < kQuantities.size(); ++k) {
+      const std::string_view q = kQuantities[k];
       const bool is_declared = std::find(declared.begin(), declared.end(), q) != declared.end();
       const auto& a = quantity(lo, q);
       const auto& b = quantity(hi, q);
@@ -217,12 +226,14 @@ void check_bands(const std::vector<BandRead>& bands, const Ctx& tier_ctx) {
                                " above (" + pct(rel) + ")";
       if (!is_declared && rel > kContinuityTolerance)
         ctx.fail(q, "discontinuous: " + what + "; the limit is " + pct(kContinuityTolerance) +
-                        " unless the published table steps there (declare it with step_at_f_min)");
+                        " unless the published table steps there (declare it with step_at_f_min)",
+                 bands[i].quantity_line[k]);
       if (is_declared && rel <= kContinuityTolerance)
         ctx.fail("step_at_f_min", "declared step but " + what + " is continuous: remove the declaration",
                  bands[i].steps_line);
       if (is_declared && rel > kDeclaredStepLimit)
-        ctx.fail(q, "step too large: " + what + "; declared steps may be at most " + pct(kDeclaredStepLimit));
+        ctx.fail(q, "step too large: " + what + "; declared steps may be at most " + pct(kDeclaredStepLimit),
+                 bands[i].quantity_line[k]);
     }
   }
 }

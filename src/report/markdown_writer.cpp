@@ -23,7 +23,12 @@ std::string cell(const std::string& s) {
 
 std::string row(const std::vector<std::string>& cells) {
   std::string s = "|";
-  for (const auto& c : cells) s += " " + cell(c) + " |";
+  for (const auto& c : cells) {
+    // Appended piece by piece: GCC 12 gives a false -Wrestrict for `"literal" + std::string` here.
+    s += ' ';
+    s += cell(c);
+    s += " |";
+  }
   return s + "\n";
 }
 
