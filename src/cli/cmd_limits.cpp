@@ -97,6 +97,7 @@ void print_text(std::ostream& out, const LimitTable& table, units::Frequency f, 
     out << "  source: " << v.source << "; confidence: " << limits::to_string(v.confidence) << "\n";
     if (const auto note = confidence_note(v.confidence, table); !note.empty()) out << "  " << note << "\n";
   }
+  if (!table.note.empty()) out << "\nTable note: " << table.note << "\n";
   out << "\nLimits are RMS values of the unperturbed incident field, averaged over the time shown "
          "(printed values rounded down to 4 digits). Which tier applies, and any stricter local rule, "
          "is set by your regulator and local codes; this listing does not replace them.\n";
@@ -152,7 +153,7 @@ int run_limits(const LimitsOptions& o, std::ostream& out) {
 
   std::vector<TierResult> results;
   int found = 0;
-  std::string last_error;
+  std::string ranges;  // "controlled 0.065–300000 MHz, uncontrolled 0.15–300000 MHz"
   for (Tier t : wanted) {
     TierResult r{t, std::nullopt, ""};
     if (table.find(t) == nullptr) {
@@ -163,14 +164,19 @@ int run_limits(const LimitsOptions& o, std::ostream& out) {
         ++found;
       } catch (const InputError& e) {
         if (!o.tier.empty()) throw;  // the one tier asked for is out of range
-        last_error = e.what();
         r.not_tabulated = e.message();
+        const auto* tt = table.find(t);
+        char buf[96];
+        std::snprintf(buf, sizeof buf, "%s%s %.6g–%.6g MHz", ranges.empty() ? "" : ", ", limits::to_string(t).c_str(),
+                      tt->f_min_mhz(), tt->f_max_mhz());
+        ranges += buf;
       }
     }
     results.push_back(std::move(r));
   }
-  if (found == 0) throw InputError(option_where("FREQ"), "no tier of " + table.name + " covers " +
-                                                            frequency_text(f) + ": " + last_error);
+  if (found == 0)
+    throw InputError(option_where("FREQ"), frequency_text(f) + " is outside every tier of " + table.name + " (" +
+                                               table.file + "): " + ranges + " (no extrapolation)");
   if (o.json)
     print_json(out, table, f, results);
   else

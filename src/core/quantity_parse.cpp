@@ -1,6 +1,8 @@
 #include "core/quantity_parse.hpp"
 
+#include <algorithm>
 #include <array>
+#include <cctype>
 #include <charconv>
 #include <cmath>
 #include <string>
@@ -59,11 +61,14 @@ double parse_with(std::string_view text, const Where& where, const std::array<Un
     throw InputError(where, "\"" + std::string(text) + "\" has no unit: expected " + std::string(expected));
   for (const auto& u : units) {
     if (u.name != unit) continue;
-    if (u.log10) return u.factor * std::pow(10.0, number / 10.0);
-    if (sign == Sign::non_negative && number < 0.0)
+    if (!u.log10 && sign == Sign::non_negative && number < 0.0)
       throw InputError(where, "\"" + std::string(text) + "\" is negative: expected " + std::string(expected) +
                                   " of zero or more");
-    return number * u.factor;
+    const double si = u.log10 ? u.factor * std::pow(10.0, number / 10.0) : number * u.factor;
+    // "4000 dBm" or "1e308 km" overflow to infinity: refused like "inf m".
+    if (!std::isfinite(si))
+      throw InputError(where, "\"" + std::string(text) + "\" is out of range: expected " + std::string(expected));
+    return si;
   }
   throw InputError(where, "unknown unit \"" + std::string(unit) + "\" in \"" + std::string(text) +
                               "\": expected " + std::string(expected));
@@ -82,11 +87,17 @@ constexpr std::array kAngle{UnitSpec{"deg", constants::pi / 180.0}, UnitSpec{"°
 constexpr std::array kTime{UnitSpec{"s", 1.0}, UnitSpec{"min", 60.0}, UnitSpec{"h", 3600.0}};
 constexpr std::array kEField{UnitSpec{"V/m", 1.0}, UnitSpec{"mV/m", 1e-3}, UnitSpec{"kV/m", 1e3}};
 constexpr std::array kHField{UnitSpec{"A/m", 1.0}, UnitSpec{"mA/m", 1e-3}};
-constexpr std::array kDensity{UnitSpec{"W/m2", 1.0},      UnitSpec{"W/m²", 1.0},
-                              UnitSpec{"mW/cm2", 10.0},   UnitSpec{"mW/cm²", 10.0},
-                              UnitSpec{"µW/cm2", 1e-2},   UnitSpec{"µW/cm²", 1e-2},
-                              UnitSpec{"uW/cm2", 1e-2},   UnitSpec{"uW/cm²", 1e-2}};
-constexpr std::array kImpedance{UnitSpec{"ohm", 1.0}, UnitSpec{"Ω", 1.0}, UnitSpec{"kohm", 1e3}};
+// "µ" is written both as the micro sign U+00B5 and as the Greek small mu U+03BC (keyboards differ).
+constexpr std::array kDensity{UnitSpec{"W/m2", 1.0},          UnitSpec{"W/m²", 1.0},
+                              UnitSpec{"W/m^2", 1.0},         UnitSpec{"mW/cm2", 10.0},
+                              UnitSpec{"mW/cm²", 10.0},       UnitSpec{"mW/cm^2", 10.0},
+                              UnitSpec{"\u00b5W/cm2", 1e-2},  UnitSpec{"\u00b5W/cm²", 1e-2},
+                              UnitSpec{"\u03bcW/cm2", 1e-2},  UnitSpec{"\u03bcW/cm²", 1e-2},
+                              UnitSpec{"uW/cm2", 1e-2},       UnitSpec{"uW/cm²", 1e-2},
+                              UnitSpec{"uW/cm^2", 1e-2}};
+// "Ω" is written both as the Greek capital omega U+03A9 and as the ohm sign U+2126.
+constexpr std::array kImpedance{UnitSpec{"ohm", 1.0}, UnitSpec{"\u03a9", 1.0}, UnitSpec{"\u2126", 1.0},
+                                UnitSpec{"kohm", 1e3}, UnitSpec{"k\u03a9", 1e3}, UnitSpec{"k\u2126", 1e3}};
 constexpr std::array kConductivity{UnitSpec{"S/m", 1.0}, UnitSpec{"mS/m", 1e-3}};
 
 }  // namespace
@@ -156,10 +167,11 @@ units::Conductivity parse_conductivity(std::string_view text, const Where& where
 }
 
 std::complex<double> parse_complex_impedance(std::string_view text, const Where& where) {
-  constexpr std::string_view expected = "a complex impedance such as \"73+j42.5 ohm\" or \"50 ohm\"";
+  constexpr std::string_view expected =
+      "a complex impedance such as \"73+j42.5 ohm\", \"12.5-j300 ohm\", \"(73,42.5) ohm\" or \"50 ohm\"";
   std::string_view t = trim(text);
   std::string_view unit;
-  for (std::string_view u : {std::string_view("ohm"), std::string_view("Ω")}) {
+  for (std::string_view u : {std::string_view("ohm"), std::string_view("\u03a9"), std::string_view("\u2126")}) {
     if (t.size() >= u.size() && t.substr(t.size() - u.size()) == u) {
       unit = u;
       t = trim(t.substr(0, t.size() - u.size()));
@@ -167,22 +179,39 @@ std::complex<double> parse_complex_impedance(std::string_view text, const Where&
     }
   }
   if (unit.empty()) throw InputError(where, "\"" + std::string(text) + "\" has no unit: expected " + std::string(expected));
-  // Real part, then optional "+j" / "-j" imaginary part.
-  const auto [re, rest] = split_number(t.substr(0, t.find_first_of("+-", 1) == std::string_view::npos
-                                                     ? t.size()
-                                                     : t.find_first_of("+-", 1)),
-                                       where, expected);
-  if (!rest.empty()) refuse(where, text, expected);
-  const std::size_t k = t.find_first_of("+-", 1);
+  // One number with nothing after it (split_number refuses NaN, infinity and non-numbers).
+  auto number = [&](std::string_view part) {
+    const auto [v, tail] = split_number(part, where, expected);
+    if (!tail.empty()) refuse(where, text, expected);
+    return v;
+  };
+  double re = 0.0;
   double im = 0.0;
-  if (k != std::string_view::npos) {
-    const double sgn = t[k] == '-' ? -1.0 : 1.0;
-    std::string_view imag = trim(t.substr(k + 1));
-    if (imag.empty() || imag.front() != 'j') refuse(where, text, expected);
-    imag.remove_prefix(1);
-    const auto [v, tail] = split_number(imag, where, expected);
-    if (!tail.empty() || v < 0.0) refuse(where, text, expected);
-    im = sgn * v;
+  if (!t.empty() && t.front() == '(') {
+    // "(R,X)": resistance and reactance, the reactance with its own sign.
+    const std::size_t comma = t.find(',');
+    if (t.back() != ')' || comma == std::string_view::npos) refuse(where, text, expected);
+    re = number(t.substr(1, comma - 1));
+    im = number(t.substr(comma + 1, t.size() - comma - 2));
+  } else if (const std::size_t j = t.find('j'); j == std::string_view::npos) {
+    re = number(t);  // resistance only
+  } else {
+    // "R+jX", "R - jX", "+jX", "-jX", "jX": the sign is the last + or - before the 'j' (so that an
+    // exponent in R, as in "1e-3+j2", is not taken for it).
+    std::size_t k = j;
+    while (k > 0 && std::isspace(static_cast<unsigned char>(t[k - 1]))) --k;
+    double sgn = 1.0;
+    std::string_view real_part = t.substr(0, k);
+    if (k > 0 && (t[k - 1] == '+' || t[k - 1] == '-')) {
+      sgn = t[k - 1] == '-' ? -1.0 : 1.0;
+      real_part = trim(t.substr(0, k - 1));
+    } else if (k > 0) {
+      refuse(where, text, expected);  // "73j42": no sign between the parts
+    }
+    const std::string_view imag = trim(t.substr(j + 1));
+    if (imag.empty() || imag.front() == '+' || imag.front() == '-') refuse(where, text, expected);
+    im = sgn * number(imag);
+    if (!real_part.empty()) re = number(real_part);
   }
   if (re < 0.0) throw InputError(where, "\"" + std::string(text) + "\" has a negative resistance");
   return {re, im};

@@ -46,7 +46,7 @@ std::string distance_up(const std::optional<double>& m) {
 std::string distance_down(const std::optional<double>& m) {
   if (!m || !std::isfinite(*m)) return "not evaluated";
   // An actual clearance is compared with a required one: rounding it down errs on the safe side.
-  return fmt::format("{:.1f} m", std::floor(*m * 10.0 * (1.0 + 1e-9)) / 10.0);
+  return fmt::format("{:.1f} m", std::max(0.0, std::floor(*m * 10.0 * (1.0 + 1e-9)) / 10.0));
 }
 
 std::string percent_up(double ratio) {

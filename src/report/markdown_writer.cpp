@@ -10,11 +10,25 @@ std::string chart_file_name(const std::string& operation) { return "chart-" + sl
 
 namespace {
 
-// A table cell: pipes escaped, newlines flattened.
+// Text from the station file: '<' and '>' as entities, so that a name can never become HTML markup
+// in a Markdown viewer.
+std::string text(const std::string& s) {
+  std::string out;
+  for (const char c : s) {
+    if (c == '<') out += "&lt;";
+    else if (c == '>') out += "&gt;";
+    else out += c;
+  }
+  return out;
+}
+
+// A table cell: as text(), with pipes escaped and newlines flattened.
 std::string cell(const std::string& s) {
   std::string out;
   for (const char c : s) {
-    if (c == '|') out += "\\|";
+    if (c == '<') out += "&lt;";
+    else if (c == '>') out += "&gt;";
+    else if (c == '|') out += "\\|";
     else if (c == '\n') out += ' ';
     else out += c;
   }
@@ -45,7 +59,7 @@ std::string table(const std::vector<std::string>& header, const std::vector<std:
 std::string to_markdown(const Record& r) {
   const auto& ev = r.evaluation;
   const std::string verdict = overall_verdict(r);
-  std::string md = "# RF exposure and installation-safety evaluation — " + r.meta.station_name + "\n\n";
+  std::string md = "# RF exposure and installation-safety evaluation — " + text(r.meta.station_name) + "\n\n";
 
   std::vector<std::vector<std::string>> title = {
       {"Station", r.meta.station_name},
@@ -98,14 +112,15 @@ std::string to_markdown(const Record& r) {
 
   md += "## Operations\n\n";
   for (const auto& op : ev.operations) {
-    md += "### " + op.name + "\n\n";
-    md += fmt::format("Transmitter {}, feed line {}, antenna {}; {}{}.\n\n", op.transmitter, op.feed_line, op.antenna,
-                      fmtx::frequency(op.frequency_hz), op.group.empty() ? "" : "; group " + op.group);
+    md += "### " + text(op.name) + "\n\n";
+    md += text(fmt::format("Transmitter {}, feed line {}, antenna {}; {}{}.", op.transmitter, op.feed_line, op.antenna,
+                           fmtx::frequency(op.frequency_hz), op.group.empty() ? "" : "; group " + op.group)) +
+          "\n\n";
     md += "**Power chain**\n\n";
     rows.clear();
     for (const auto& s : op.chain) rows.push_back({s.label, fmtx::power(s.power_w), s.detail});
     md += table({"Step", "Power", "Detail"}, rows);
-    md += "**Model:** " + op.method + ". **Limits:** " + op.limits_source + ".\n\n";
+    md += "**Model:** " + text(op.method) + ". **Limits:** " + text(op.limits_source) + ".\n\n";
     rows.clear();
     if (op.evaluated_anywhere) {
       rows.push_back({"Worst exposure", fmtx::percent_up(op.worst.ratio) + " of the " + tier_name(op.worst.tier) +
@@ -130,10 +145,10 @@ std::string to_markdown(const Record& r) {
       }
       md += table({"Point of interest", "Tier", "At", "Exposure (% of limit)"}, rows);
     }
-    for (const auto& n : op.notes) md += "- " + n + "\n";
+    for (const auto& n : op.notes) md += "- " + text(n) + "\n";
     if (!op.notes.empty()) md += "\n";
     if (!op.ratio_vs_distance.empty()) {
-      md += "![Exposure ratio versus distance, " + op.name + "](" + chart_file_name(op.name) + ")\n\n";
+      md += "![Exposure ratio versus distance, " + text(op.name) + "](" + chart_file_name(op.name) + ")\n\n";
     }
   }
 
@@ -145,23 +160,23 @@ std::string to_markdown(const Record& r) {
                       "**" + fmtx::verdict_word(c.pass ? "pass" : "fail") + "**", c.source, c.note});
     }
     md += table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Source", "Note"}, rows);
-    for (const auto& a : r.lines->assumptions) md += "- Assumption: " + a + "\n";
+    for (const auto& a : r.lines->assumptions) md += "- Assumption: " + text(a) + "\n";
     if (!r.lines->assumptions.empty()) md += "\n";
   } else {
     md += "The station file describes no power lines or supports; no clearance checks were made.\n\n";
   }
 
   md += "## Assumptions and methods\n\n";
-  if (!ev.body_rule.empty()) md += "- Body line: " + ev.body_rule + "\n";
+  if (!ev.body_rule.empty()) md += "- Body line: " + text(ev.body_rule) + "\n";
   md += fmt::format("- Zone grid spacing: {} m.\n", ev.grid_spacing_m);
-  for (const auto& a : r.assumptions) md += "- " + a + "\n";
+  for (const auto& a : r.assumptions) md += "- " + text(a) + "\n";
   md += "\n";
   rows.clear();
   for (const auto& ref : r.references) rows.push_back({ref.topic, ref.source});
   md += table({"Topic", "Method and source"}, rows);
 
   md += "## Cautions\n\n";
-  for (const auto& c : all_cautions(r)) md += "- **Caution:** " + c + "\n";
+  for (const auto& c : all_cautions(r)) md += "- **Caution:** " + text(c) + "\n";
   md += "\n";
   return md;
 }

@@ -102,6 +102,7 @@ constexpr double kSlack = 1e-9;
 
 double round_distance_up(double metres) {
   if (!std::isfinite(metres)) return metres;
+  if (metres <= 0.0) return 0.0;  // no distance needed (and never "-0.0")
   return std::ceil(metres * 10.0 * (1.0 - kSlack)) / 10.0;
 }
 

@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
-#include <map>
+#include <numbers>
 
 #include <fmt/format.h>
 
@@ -296,11 +296,17 @@ std::string site_map_svg(const Record& r, bool standalone) {
     double len = 0.0;
     for (std::size_t k = 1; k < pts.size(); ++k) len += std::hypot(pts[k].x_m - pts[k - 1].x_m, pts[k].y_m - pts[k - 1].y_m);
     if (len * f.scale < 40.0) continue;
-    // Label near the northernmost point so labels of nested contours do not overlap.
-    const auto top = std::max_element(pts.begin(), pts.end(),
-                                      [](const PlanPoint& a, const PlanPoint& q) { return a.y_m < q.y_m; });
-    contour_labels += label(f.X(top->x_m), f.Y(top->y_m) - 3,
-                            pct_label(c.level) + (c.tier == limits::Tier::controlled ? " C" : " U"), "middle", colour,
+    // Each (tier, level) labels its line on its own side — uncontrolled 100 % north, 50 % west;
+    // controlled 100 % south, 50 % east — so labels of nested, nearly equal contours stay apart.
+    const bool u = c.tier == limits::Tier::uncontrolled, full = c.level >= 1.0;
+    const double angle = u ? (full ? 90.0 : 180.0) : (full ? 270.0 : 0.0);
+    const double ux = std::cos(angle * std::numbers::pi / 180.0), uy = std::sin(angle * std::numbers::pi / 180.0);
+    const auto at = std::max_element(pts.begin(), pts.end(), [&](const PlanPoint& a, const PlanPoint& q) {
+      return a.x_m * ux + a.y_m * uy < q.x_m * ux + q.y_m * uy;
+    });
+    const double lx = f.X(at->x_m) + 4.0 * ux, ly = f.Y(at->y_m) - 4.0 * uy + (uy < 0 ? 8.0 : uy > 0 ? 0.0 : 4.0);
+    const char* anchor = ux > 0.5 ? "start" : ux < -0.5 ? "end" : "middle";
+    contour_labels += label(lx, ly, pct_label(c.level) + (u ? " U" : " C"), anchor, colour,
                             " font-size=\"10\" font-weight=\"bold\"");
   }
   s += "</g>\n";

@@ -44,21 +44,25 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
   out << "  verdict: " << paint(fmtx::verdict_word(verdict), verdict, options.colour) << "\n\n";
 
   fmtx::TextTable ops;
-  ops.header = {"operation", "frequency", "PEP", "avg at antenna", "worst", "where (x, y, z)", "zone (tier)",
-                "permitted PEP", "screening dist.", "detailed dist.", "verdict"};
+  ops.header = {"operation", "frequency", "PEP", "avg at antenna", "worst", "zone (tier)", "permitted PEP", "verdict"};
+  fmtx::TextTable dist;
+  dist.header = {"operation", "worst at (x, y, z)", "screening C", "screening U", "detailed C", "detailed U"};
   for (const auto& op : ev.operations) {
     const bool e = op.evaluated_anywhere;
     const std::string v = exposure::to_string(op.verdict);
     ops.rows.push_back({op.name, fmtx::frequency(op.frequency_hz), fmtx::power(op.pep_w),
                         fmtx::power(op.average_power_w), e ? fmtx::percent_up(op.worst.ratio) : "not evaluated",
-                        e ? fmtx::where(op.worst.at) : "—",
                         e ? op.worst.zone + " (" + tier_name(op.worst.tier) + ")" : "—",
-                        fmtx::power_down(op.permitted_pep_w), fmtx::tiers(op.screening_distance),
-                        fmtx::tiers(op.detailed_distance), paint(fmtx::verdict_word(v), v, options.colour)});
+                        fmtx::power_down(op.permitted_pep_w), paint(fmtx::verdict_word(v), v, options.colour)});
+    dist.rows.push_back({op.name, e ? fmtx::where(op.worst.at) : "—", fmtx::distance_up(op.screening_distance.controlled_m),
+                         fmtx::distance_up(op.screening_distance.uncontrolled_m),
+                         fmtx::distance_up(op.detailed_distance.controlled_m),
+                         fmtx::distance_up(op.detailed_distance.uncontrolled_m)});
   }
-  out << "Operations (worst ratio in % of the limit of the place's tier; distances C = controlled, "
-         "U = uncontrolled)\n";
+  out << "Operations (worst exposure in % of the limit of the tier where it occurs)\n";
   out << ops.render("  ") << "\n";
+  out << "Where, and compliance distances (C = controlled, U = uncontrolled tier)\n";
+  out << dist.render("  ") << "\n";
 
   if (!ev.groups.empty()) {
     fmtx::TextTable groups;

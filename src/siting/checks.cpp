@@ -396,7 +396,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
       c.rule = "antenna conductor size";
       c.source = t.span_size_source;
       c.subject = sp.name;
-      c.actual = units::metres(round_down(sp.wire->diameter.value(), kDiameterStep));
+      c.actual = units::metres(std::round(sp.wire->diameter.value() / kDiameterStep) * kDiameterStep);
       c.status = CheckStatus::fail;
       c.note = "material \"" + sp.wire->material +
                "\" is not listed for antenna spans: use hard-drawn copper, copper-clad steel or bronze";
@@ -408,6 +408,9 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
                        std::to_string(sp.wire->awg) + " AWG " + sp.wire->material + " over a " + metres(span_len) +
                            " span; at least " + std::to_string(rule->max_awg) + " AWG required",
                        kDiameterStep);
+    // Sizes, not clearances: both diameters to the nearest 0.01 mm, the verdict by AWG number.
+    c.required = units::metres(std::round(awg_diameter(rule->max_awg).value() / kDiameterStep) * kDiameterStep);
+    c.actual = units::metres(std::round(sp.wire->diameter.value() / kDiameterStep) * kDiameterStep);
     c.status = sp.wire->awg <= rule->max_awg ? CheckStatus::pass : CheckStatus::fail;
     r.checks.push_back(c);
   }

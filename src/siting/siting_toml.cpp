@@ -298,7 +298,11 @@ std::string lines_report_text(const LinesReport& report) {
     const std::string act = c.actual ? fmt::format("{:.2f} m", c.actual->value()) : std::string("—");
     const std::string status = c.status == CheckStatus::pass ? "PASS" : c.status == CheckStatus::fail ? "FAIL" : "NOT EVALUATED";
     out += fmt::format("  [{}] {}: {}{}\n", status, c.rule, c.subject, c.line.empty() ? "" : " — " + c.line);
-    if (c.rule == "no crossing")
+    if (c.rule == "antenna conductor size")
+      out += fmt::format("      required diameter {}, actual {}\n",
+                         c.required ? fmt::format("{:.2f} mm", c.required->value() * 1e3) : std::string("—"),
+                         c.actual ? fmt::format("{:.2f} mm", c.actual->value() * 1e3) : std::string("—"));
+    else if (c.rule == "no crossing")
       out += fmt::format("      plan distance {}\n", act);
     else
       out += fmt::format("      required {}, actual {}\n", req, act);

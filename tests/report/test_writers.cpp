@@ -11,6 +11,7 @@
 #include <sstream>
 
 #include "fixture.hpp"
+#include "report/format.hpp"
 #include "report/svg.hpp"
 #include "report/writers.hpp"
 #include "xml_check.hpp"
@@ -18,6 +19,7 @@
 using namespace standoff::report;
 using standoff::report::test::synthetic_record;
 namespace fs = std::filesystem;
+using standoff::limits::Tier;
 
 TEST_CASE("the strict XML checker refuses what is not well-formed", "[report][xml]") {
   // W3C XML 1.0 well-formedness constraints: element type match, unique attributes, quoted values,
@@ -88,7 +90,7 @@ TEST_CASE("the site map draws the 100 % and 50 % contours at the closed-form rad
     double level;
     double radius;
   };
-  using standoff::limits::Tier;
+
   const double r100 = test::kR100;
   for (const Expect e : {Expect{Tier::uncontrolled, 1.0, r100}, Expect{Tier::uncontrolled, 0.5, r100 * std::sqrt(2.0)},
                          Expect{Tier::controlled, 1.0, r100 * std::sqrt(0.45)},
@@ -174,6 +176,15 @@ TEST_CASE("every SVG is well-formed and the HTML is self-contained", "[report][s
   }
 }
 
+TEST_CASE("Markdown never passes station text through as HTML", "[report][markdown]") {
+  const std::string md = to_markdown(synthetic_record());
+  CHECK(md.find("Test Station &lt;A&B&gt;") != std::string::npos);
+  CHECK(md.find("<A&B>") == std::string::npos);
+  CHECK(md.find("a note with | pipe") != std::string::npos);      // a list item keeps its pipe
+  CHECK(md.find("![Site map") != std::string::npos);
+  CHECK(md.find("(chart-20-m-ssb.svg)") != std::string::npos);
+}
+
 TEST_CASE("the site map shows every kind of site element", "[report][svg]") {
   const std::string svg = site_map_svg(synthetic_record(), true);
   for (const char* id : {"sm-zones", "sm-buildings", "sm-boundary", "sm-fall-zones", "sm-contours", "sm-power-lines",
@@ -237,6 +248,8 @@ TEST_CASE("directed rounding: distances up, power down, ratios up", "[report][ro
   CHECK(round_power_down(1234.5) == Approx(1230.0).epsilon(1e-12));
   CHECK(round_power_down(87.69) == Approx(87.6).epsilon(1e-12));
   CHECK(round_power_down(1500.0) == Approx(1500.0).epsilon(1e-12));
+  CHECK(round_distance_up(-1e-17) == 0.0);  // no distance needed is 0.0 m, never "-0.0 m"
+  CHECK(standoff::report::fmtx::distance_up(-0.0) == "0.0 m");
   CHECK(round_percent_up(2.1234) == Approx(212.4).epsilon(1e-12));
   CHECK(round_percent_up(0.5) == Approx(50.0).epsilon(1e-12));
   CHECK(standoff::report::fmtx::distance_down(2.99) == "2.9 m");

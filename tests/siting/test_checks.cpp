@@ -50,7 +50,8 @@ Span wire(Point3 a, Point3 b, double sag, std::optional<double> swing_deg, SpanK
   return s;
 }
 
-const Check& find(const LinesReport& r, const std::string& rule) {
+// Returns a copy: callers may pass a temporary report.
+Check find(const LinesReport& r, const std::string& rule) {
   for (const auto& c : r.checks)
     if (c.rule == rule) return c;
   FAIL("no check " << rule);

@@ -6,6 +6,7 @@
 #include <cmath>
 
 #include "core/constants.hpp"
+#include "core/error.hpp"
 #include "siting/checks.hpp"
 #include "siting/clearances.hpp"
 #include "siting/clearances_toml.hpp"

@@ -7,6 +7,7 @@
 #include <toml++/toml.h>
 
 #include "core/constants.hpp"
+#include "core/error.hpp"
 #include "siting/siting_toml.hpp"
 
 using namespace standoff;

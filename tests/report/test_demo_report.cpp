@@ -1,0 +1,87 @@
+// The committed demo report (reports/demo/) is what `standoff demo --out DIR` writes today, apart
+// from the date and the tool version. If this fails after an intended change, regenerate with
+//   build/<dir>/standoff demo --out reports/demo
+// and review the diff before committing it.
+#include <catch2/catch.hpp>
+
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <regex>
+#include <sstream>
+
+#include <nlohmann/json.hpp>
+
+#include "cli/run.hpp"
+#include "xml_check.hpp"
+
+namespace fs = std::filesystem;
+
+namespace {
+
+std::string slurp(const fs::path& p) {
+  std::ifstream in(p, std::ios::binary);
+  return std::string(std::istreambuf_iterator<char>(in), {});
+}
+
+// The file without the lines that carry the date or the tool version.
+std::vector<std::string> stable_lines(const std::string& text) {
+  static const std::regex volatile_line(R"(\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ|Tool version|"version":)");
+  std::vector<std::string> out;
+  std::istringstream in(text);
+  for (std::string line; std::getline(in, line);) {
+    if (!std::regex_search(line, volatile_line)) out.push_back(line);
+  }
+  return out;
+}
+
+std::map<std::string, std::string> files_in(const fs::path& dir) {
+  std::map<std::string, std::string> m;
+  for (const auto& e : fs::directory_iterator(dir)) {
+    if (e.is_regular_file()) m[e.path().filename().string()] = slurp(e.path());
+  }
+  return m;
+}
+
+}  // namespace
+
+TEST_CASE("standoff demo --out regenerates the committed demo report", "[report][demo]") {
+  const fs::path committed = fs::path(STANDOFF_SOURCE_DIR) / "reports" / "demo";
+  REQUIRE(fs::is_directory(committed));
+  const fs::path dir = fs::temp_directory_path() / ("standoff-demo-report-" + std::to_string(::getpid()));
+  fs::remove_all(dir);
+  std::ostringstream out, err;
+  const int code = standoff::cli::run({"demo", "--out", dir.string(), "--threads", "2"}, out, err);
+  INFO(err.str());
+  REQUIRE((code == 0 || code == 1));  // 1: the demo has a finding on purpose (issue 5)
+
+  const auto fresh = files_in(dir), old = files_in(committed);
+  std::vector<std::string> fresh_names, old_names;
+  for (const auto& [n, _] : fresh) fresh_names.push_back(n);
+  for (const auto& [n, _] : old) old_names.push_back(n);
+  CHECK(fresh_names == old_names);
+  for (const auto& [name, text] : fresh) {
+    if (!old.count(name)) continue;
+    INFO(name << " differs from reports/demo/" << name << " (regenerate with: standoff demo --out reports/demo)");
+    const auto a = stable_lines(text), b = stable_lines(old.at(name));
+    CHECK(a.size() == b.size());
+    for (std::size_t k = 0; k < std::min(a.size(), b.size()); ++k) {
+      if (a[k] != b[k]) {
+        INFO("first difference at stable line " << k + 1 << ":\n  new: " << a[k] << "\n  old: " << b[k]);
+        CHECK(a[k] == b[k]);
+        break;
+      }
+    }
+  }
+
+  // The regenerated record is consistent with the exit code, and every SVG is well-formed.
+  const auto j = nlohmann::json::parse(fresh.at("report.json"));
+  CHECK((j.at("verdict") == "within") == (code == 0));
+  for (const auto& [name, text] : fresh) {
+    if (name.size() > 4 && name.substr(name.size() - 4) == ".svg") {
+      INFO(name);
+      CHECK_FALSE(standoff::report::test::xml_well_formed(text));
+    }
+  }
+  fs::remove_all(dir);
+}
