@@ -363,10 +363,19 @@ void add_distance(CLI::App& root, Commands& commands) {
     std::sort(cautions.begin(), cautions.end());
     cautions.erase(std::unique(cautions.begin(), cautions.end()), cautions.end());
 
+    // At a given distance: inside λ/2π (or the antenna's near field) the far-field model is outside
+    // its validity, so no verdict is given there; without one the check cannot pass (exit 1).
+    auto verdict_at_person = [&](const TierOutcome& t) -> std::optional<bool> {
+      if (!t.chain.evaluated) return std::nullopt;
+      if (t.screening && person->value() < t.screening->near_field_boundary.value()) return std::nullopt;
+      return person->value() >= t.distance_m;
+    };
     int exit_code = kOk;
-    if (person && evaluated)
-      for (const auto& t : tiers)
-        if (t.limit.tier == limits::Tier::uncontrolled && person->value() < t.distance_m) exit_code = kExceeds;
+    if (person)
+      for (const auto& t : tiers) {
+        const auto v = verdict_at_person(t);
+        if (!v || (!*v && t.limit.tier == limits::Tier::uncontrolled)) exit_code = kExceeds;
+      }
 
     if (o->json) {
       json j;
@@ -432,7 +441,11 @@ void add_distance(CLI::App& root, Commands& commands) {
           x["notes"] = json::array({t.aperture->note});
         }
         for (const auto& n : t.chain.notes) x["notes"].push_back(n);
-        if (person) x["compliant_at_distance"] = t.chain.evaluated ? json(person->value() >= t.distance_m) : json(nullptr);
+        if (person) {
+          const auto v = verdict_at_person(t);
+          x["compliant_at_distance"] = v ? json(*v) : json(nullptr);
+          if (!v) x["at_distance"] = "not evaluated — measure or use another method (inside the far-field model's validity radius)";
+        }
         jt[limits::to_string(t.limit.tier)] = x;
       }
       j["tiers"] = jt;
@@ -491,9 +504,14 @@ void add_distance(CLI::App& root, Commands& commands) {
       } else if (t.aperture) {
         out << " along the beam, " << exposure::to_string(t.aperture->region) << "\n  note: " << t.aperture->note << "\n";
       }
-      if (person)
+      if (person) {
+        const auto v = verdict_at_person(t);
         out << "  at " << sig(person->value()) << " m: "
-            << (person->value() >= t.distance_m ? "within the limit" : "EXCEEDS the limit") << "\n";
+            << (!v ? "not evaluated — inside " + fixed(t.screening->near_field_boundary.value(), 1) +
+                         " m the far-field model does not hold; measure or use the detailed model"
+                   : *v ? std::string("within the limit") : std::string("EXCEEDS the limit"))
+            << "\n";
+      }
     }
     if (exemption) {
       out << "\nFCC exemption at " << sig(person->value()) << " m:\n";

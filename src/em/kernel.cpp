@@ -201,7 +201,10 @@ void segment_field(const Eigen::Vector3d& r, const Line& seg, cd ia, cd ib, doub
     const Eigen::Vector3cd grad = (dg / rr) * rv.cast<cd>();
     a_int += (w * cur * g) * seg.t.cast<cd>();
     grad_int += w * grad;
-    h_int += (w * cur) * grad.cross(seg.t.cast<cd>());
+    // ∇G × t written out: Eigen 3.4's cross() conjugates complex operands.
+    const Eigen::Vector3d& t = seg.t;
+    h_int += (w * cur) * Eigen::Vector3cd(grad.y() * t.z() - grad.z() * t.y(), grad.z() * t.x() - grad.x() * t.z(),
+                                          grad.x() * t.y() - grad.y() * t.x());
   };
   if (dist > 3.0 * seg.length) {
     const Rule g = gauss_legendre(dist > 10.0 * seg.length ? 3 : 5);

@@ -569,8 +569,6 @@ StationEvaluation evaluate(const EvaluationInput& in, const EvaluationOptions& o
       "This evaluation is a model, not a measurement: where a result is close to a limit, or not evaluated, "
       "measure or use another method.",
       "Fields are computed without buildings, fences, vehicles or people in them (no shielding assumed).",
-      "Never touch an antenna or its feed while transmitting: contact with a radiating wire can cause RF burns.",
-      "Local codes, the utility and licensed practice govern; this tool does not replace them.",
   };
   return ev;
 }

@@ -102,11 +102,19 @@ ScreeningDistance screening_distance(units::Power p, units::Gain g, GroundFactor
   return r;
 }
 
+namespace {
+// k steps as a double: divide by the integer 1/step when step < 1 so that 0.1-steps print cleanly.
+double steps_to_value(double k, double step) {
+  const double inv = std::round(1.0 / step);
+  return step < 1.0 && std::abs(inv * step - 1.0) < 1e-12 ? k / inv : k * step;
+}
+}  // namespace
+
 double ceil_to(double value, double step) {
   // A tiny allowance so that a value already on the grid (up to rounding noise) stays there.
-  return std::ceil(value / step - 1e-9) * step;
+  return steps_to_value(std::ceil(value / step - 1e-9), step);
 }
 
-double floor_to(double value, double step) { return std::floor(value / step + 1e-9) * step; }
+double floor_to(double value, double step) { return steps_to_value(std::floor(value / step + 1e-9), step); }
 
 }  // namespace standoff::exposure

@@ -26,8 +26,15 @@ std::string metres(double v) {
   return buf;
 }
 
-double round_up(double v, double step) { return std::ceil(v / step - 1e-9) * step; }
-double round_down(double v, double step) { return std::max(0.0, std::floor(v / step + 1e-9) * step); }
+// Whole steps, then divided by the (integral) steps per metre so 51.66 prints as 51.66.
+double round_up(double v, double step) {
+  const double per = std::round(1.0 / step);
+  return std::ceil(v * per - 1e-9) / per;
+}
+double round_down(double v, double step) {
+  const double per = std::round(1.0 / step);
+  return std::max(0.0, std::floor(v * per + 1e-9) / per);
+}
 
 // A measured check: the requirement rounded up, the measurement rounded down, then compared.
 Check measured(std::string rule, std::string source, std::string subject, std::string line, double required_m,
@@ -349,8 +356,11 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
       const double about_from = point_conductor_distance(shape.from, li.geometry) - length;
       const double about_to = point_conductor_distance(shape.to, li.geometry) - length;
       const bool from_worse = about_from <= about_to;
-      const std::string pivot = from_worse ? (sp.from_support ? *sp.from_support : std::string("its start"))
-                                           : (sp.to_support ? *sp.to_support : std::string("its end"));
+      const auto& name = from_worse ? sp.from_support : sp.to_support;
+      const Vec3& at = from_worse ? shape.from : shape.to;
+      char where[96];
+      std::snprintf(where, sizeof where, "the attachment at (%.2f, %.2f, %.2f) m", at.x(), at.y(), at.z());
+      const std::string pivot = name ? *name : std::string(where);
       const double d = std::max(0.0, std::min(about_from, about_to));
       const std::string note = "wire of length " + metres(length) + " swinging about " + pivot + " if the other end fails";
       if (!li.approach.distance)
@@ -396,7 +406,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
       c.rule = "antenna conductor size";
       c.source = t.span_size_source;
       c.subject = sp.name;
-      c.actual = units::metres(std::round(sp.wire->diameter.value() / kDiameterStep) * kDiameterStep);
+      c.actual = units::metres(std::round(sp.wire->diameter.value() * 1e5) / 1e5);
       c.status = CheckStatus::fail;
       c.note = "material \"" + sp.wire->material +
                "\" is not listed for antenna spans: use hard-drawn copper, copper-clad steel or bronze";
@@ -409,8 +419,8 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
                            " span; at least " + std::to_string(rule->max_awg) + " AWG required",
                        kDiameterStep);
     // Sizes, not clearances: both diameters to the nearest 0.01 mm, the verdict by AWG number.
-    c.required = units::metres(std::round(awg_diameter(rule->max_awg).value() / kDiameterStep) * kDiameterStep);
-    c.actual = units::metres(std::round(sp.wire->diameter.value() / kDiameterStep) * kDiameterStep);
+    c.required = units::metres(std::round(awg_diameter(rule->max_awg).value() * 1e5) / 1e5);
+    c.actual = units::metres(std::round(sp.wire->diameter.value() * 1e5) / 1e5);
     c.status = sp.wire->awg <= rule->max_awg ? CheckStatus::pass : CheckStatus::fail;
     r.checks.push_back(c);
   }

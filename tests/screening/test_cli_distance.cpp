@@ -4,6 +4,7 @@
 #include <catch2/catch.hpp>
 
 #include <sstream>
+#include <utility>
 #include <string>
 #include <vector>
 
@@ -91,8 +92,18 @@ TEST_CASE("bad input is refused with exit 2 and nothing on stdout", "[cli][dista
       Bad{{"--pattern", "2 min on, 2 min"}, "on or off"},
       Bad{{"--on-air", "50%", "--pattern", "1 min on, 1 min off"}, "not both"},
       Bad{{"--standard", "mars"}, "expected fcc"});
-  // Defaults first; a later repeat of an option overrides it (CLI11 keeps the last value).
-  std::vector<std::string> args{"distance", "--freq", "144MHz", "--power", "100W", "--gain", "6dBi"};
+  // The valid defaults, with the bad case's options replacing any default of the same name.
+  std::vector<std::string> args{"distance"};
+  const std::vector<std::pair<std::string, std::string>> defaults{
+      {"--freq", "144MHz"}, {"--power", "100W"}, {"--gain", "6dBi"}};
+  for (const auto& [opt, value] : defaults) {
+    bool overridden = false;
+    for (const auto& a : b.args) overridden = overridden || a == opt || a.rfind(opt + "=", 0) == 0;
+    if (!overridden) {
+      args.push_back(opt);
+      args.push_back(value);
+    }
+  }
   args.insert(args.end(), b.args.begin(), b.args.end());
   const auto r = run(args);
   CAPTURE(b.message);
