@@ -383,8 +383,8 @@ void add_distance(CLI::App& root, Commands& commands) {
       j["pep_w"] = pep.value();
       j["gain_dbi"] = worst->chain.gain.dbi();
       j["standard"] = limits::to_string(*standard);
-      j["ground"] = exposure::to_string(*ground);
-      j["ground_factor"] = exposure::ground_factor_ratio(*ground);
+      j["ground"] = dish ? json("not applied (aperture model on the beam axis)") : json(exposure::to_string(*ground));
+      j["ground_factor"] = dish ? json(nullptr) : json(exposure::ground_factor_ratio(*ground));
       j["duty"] = {{"fraction", in.duty.value}, {"source", in.duty_source}};
       j["pattern"] = in.pattern.describe();
       j["evaluated"] = evaluated;
@@ -482,8 +482,12 @@ void add_distance(CLI::App& root, Commands& commands) {
     }
 
     // ---- text
-    out << "Far-field screening at " << sig(f.value() / 1e6, 6) << " MHz (" << table.name << ", ground factor "
-        << exposure::to_string(*ground) << " = " << exposure::ground_factor_ratio(*ground) << ")\n";
+    if (dish)
+      out << "Aperture (dish) screening on the beam axis at " << sig(f.value() / 1e6, 6) << " MHz (" << table.name
+          << "; no ground factor)\n";
+    else
+      out << "Far-field screening at " << sig(f.value() / 1e6, 6) << " MHz (" << table.name << ", ground factor "
+          << exposure::to_string(*ground) << " = " << exposure::ground_factor_ratio(*ground) << ")\n";
     for (const auto& t : tiers) {
       out << "\n" << limits::to_string(t.limit.tier) << " (" << sig(t.limit.averaging.value() / 60.0) << " min average)\n";
       out << "  power chain:\n";
@@ -493,6 +497,11 @@ void add_distance(CLI::App& root, Commands& commands) {
       if (!t.chain.evaluated) {
         out << "  distance: not evaluated — measure or use another method\n";
         for (const auto& n : t.chain.notes) out << "  note: " << n << "\n";
+        continue;
+      }
+      if (t.aperture && t.aperture->within_limit_everywhere) {
+        out << "  compliance distance: none needed on the beam axis (near-field density within the limit)\n"
+            << "  note: " << t.aperture->note << "\n";
         continue;
       }
       out << "  compliance distance: " << fixed(exposure::ceil_to(t.distance_m, kStepM), 1) << " m ("

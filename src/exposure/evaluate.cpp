@@ -4,6 +4,7 @@
 #include "exposure/evaluate.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <exception>
 #include <map>
@@ -261,6 +262,147 @@ std::string body_rule_text(limits::Standard s) {
   return rule;
 }
 
+// Coarse-first grids (docs/methods.md): below this frequency (λ ≥ 4 m, four times the 1 m coarse
+// spacing) a cell more than kNearAntenna_m from every antenna wire in plan, whose four computed
+// 1 m neighbours are all valid and below kCoarseThreshold of both tiers' limits, takes the largest
+// neighbouring value instead of being computed. Everything else is computed at full resolution.
+constexpr double kCoarseMaxFrequency_hz = 75e6;
+constexpr double kNearAntenna_m = 3.0;
+constexpr double kCoarseThreshold = 0.05;
+
+void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim, const EvaluationOptions& opt,
+                   unsigned threads, OperationResult& op, bool& any) {
+  const ZoneGrid& zg = g.grid;
+  const double s = zg.spacing_m;
+  const int ti = tier_index(zg.tier);
+  const std::size_t nx = static_cast<std::size_t>(zg.nx), ny = static_cast<std::size_t>(zg.ny);
+  const std::size_t ncell = nx * ny;
+  ZoneGrid::OperationLayer layer;
+  layer.operation = src.name;
+  layer.state.assign(ncell, CellState::outside);
+  layer.ratio_controlled.assign(ncell, 0.0);
+  layer.ratio_uncontrolled.assign(ncell, 0.0);
+
+  auto centre_of = [&](std::size_t c) {
+    return PlanPoint{zg.origin_x_m + static_cast<double>(c % nx) * s, zg.origin_y_m + static_cast<double>(c / nx) * s};
+  };
+  // Per cell: computed?, valid?, ratio per tier (max over its body lines), the zone-tier worst.
+  std::vector<char> computed(ncell, 0), valid(ncell, 0);
+  std::vector<double> rc(ncell, 0.0), ru(ncell, 0.0);
+  std::vector<PlaceExposure> best(ncell);
+
+  auto compute = [&](const std::vector<std::size_t>& cells) {
+    std::vector<Eigen::Vector3d> pts;
+    std::vector<std::size_t> owner;
+    for (std::size_t c : cells) {
+      const PlanPoint centre = centre_of(c);
+      add_body_line(pts, centre.x_m, centre.y_m, g.floor);
+      owner.push_back(c);
+      // Finer near the antenna: 2×2 sub-points in cells of the zone within the refine radius.
+      if (zg.state[c] != CellState::outside && plan_distance_to_antenna(src, centre) <= opt.refine_radius_m)
+        for (int q = 0; q < 4; ++q) {
+          add_body_line(pts, centre.x_m + (q % 2 == 0 ? -0.25 : 0.25) * s, centre.y_m + (q / 2 == 0 ? -0.25 : 0.25) * s,
+                        g.floor);
+          owner.push_back(c);
+        }
+    }
+    const auto f = compute_fields(src.field, pts, threads);
+    for (std::size_t c : cells) {
+      computed[c] = 1;
+      valid[c] = 1;
+    }
+    std::vector<char> seen(ncell, 0);
+    for (std::size_t b = 0; b < owner.size(); ++b) {
+      const std::size_t c = owner[b];
+      const BodyResult r = reduce_body(&f[b * kBodySamples], lim);
+      if (!r.valid) {
+        if (valid[c] && zg.state[c] != CellState::outside) {
+          const auto& p = pts[b * kBodySamples];
+          note_not_evaluated(op, SitePoint{p.x(), p.y(), g.floor}, zg.zone,
+                             "within the model's validity limit (e.g. closer than 3 wire radii to a wire, or in "
+                             "the reactive near field of a screening model) — not evaluated, measure or use "
+                             "another method");
+        }
+        valid[c] = 0;
+        continue;
+      }
+      rc[c] = std::max(rc[c], r.avg[0].value);
+      ru[c] = std::max(ru[c], r.avg[1].value);
+      if (!seen[c] || r.avg[ti].value > best[c].ratio) {
+        seen[c] = 1;
+        const auto& p = pts[b * kBodySamples + static_cast<std::size_t>(r.peak_sample[ti])];
+        best[c] = PlaceExposure{SitePoint{p.x(), p.y(), p.z()}, zg.zone, zg.tier, r.avg[ti].value, r.peak[ti],
+                                r.avg[ti].quantity, r.e_at_peak[ti], r.h_at_peak[ti]};
+      }
+    }
+  };
+
+  const bool coarse_first = opt.coarse_first && src.frequency_hz <= kCoarseMaxFrequency_hz && s < 1.0;
+  const std::size_t step = coarse_first ? static_cast<std::size_t>(std::max(2.0, std::round(1.0 / s))) : 1;
+  auto is_node = [&](std::size_t i, std::size_t j) {
+    return (i % step == 0 || i == nx - 1) && (j % step == 0 || j == ny - 1);
+  };
+  std::vector<std::size_t> first, second;
+  for (std::size_t c = 0; c < ncell; ++c) {
+    const bool inside_zone = zg.state[c] != CellState::outside;
+    if (!coarse_first) {
+      if (inside_zone) first.push_back(c);
+      continue;
+    }
+    const bool node = is_node(c % nx, c / nx);
+    const bool near = inside_zone && plan_distance_to_antenna(src, centre_of(c)) <= kNearAntenna_m;
+    if (node || near) first.push_back(c);
+  }
+  compute(first);
+  // Second pass: cells whose coarse neighbours do not allow an estimate are computed too.
+  std::vector<std::array<std::size_t, 4>> neighbours(ncell);
+  if (coarse_first) {
+    for (std::size_t c = 0; c < ncell; ++c) {
+      if (zg.state[c] == CellState::outside || computed[c]) continue;
+      const std::size_t i = c % nx, j = c / nx;
+      const std::size_t i0 = i - i % step, j0 = j - j % step;
+      const std::size_t i1 = std::min(i0 + step, nx - 1), j1 = std::min(j0 + step, ny - 1);
+      neighbours[c] = {j0 * nx + i0, j0 * nx + i1, j1 * nx + i0, j1 * nx + i1};
+      bool estimate = true;
+      for (std::size_t n : neighbours[c])
+        if (!valid[n] || std::max(rc[n], ru[n]) >= kCoarseThreshold) estimate = false;
+      if (!estimate) second.push_back(c);
+    }
+    compute(second);
+  }
+
+  for (std::size_t c = 0; c < ncell; ++c) {
+    if (zg.state[c] == CellState::outside) continue;
+    if (computed[c]) {
+      if (!valid[c]) {
+        layer.state[c] = CellState::not_evaluated;
+        g.grid.state[c] = CellState::not_evaluated;
+        continue;
+      }
+      layer.state[c] = CellState::evaluated;
+      layer.ratio_controlled[c] = rc[c];
+      layer.ratio_uncontrolled[c] = ru[c];
+      consider_worst(op.worst, any, best[c]);
+      continue;
+    }
+    // Estimated from the largest of its computed neighbours (all below kCoarseThreshold).
+    layer.state[c] = CellState::evaluated;
+    std::size_t top = neighbours[c][0];
+    for (std::size_t n : neighbours[c]) {
+      layer.ratio_controlled[c] = std::max(layer.ratio_controlled[c], rc[n]);
+      layer.ratio_uncontrolled[c] = std::max(layer.ratio_uncontrolled[c], ru[n]);
+      if ((ti == 0 ? rc[n] : ru[n]) > (ti == 0 ? rc[top] : ru[top])) top = n;
+    }
+    PlaceExposure pe = best[top];
+    pe.at.x_m = centre_of(c).x_m;
+    pe.at.y_m = centre_of(c).y_m;
+    pe.zone = zg.zone;
+    pe.tier = zg.tier;
+    consider_worst(op.worst, any, pe);
+  }
+  g.grid.layers.push_back(std::move(layer));
+}
+
 }  // namespace
 
 double body_sample_height_m(int k) { return kBodyHeight_m * (k + 0.5) / kBodySamples; }
@@ -356,91 +498,7 @@ StationEvaluation evaluate(const EvaluationInput& in, const EvaluationOptions& o
     bool any = false;
 
     for (auto& g : grids) {
-      const ZoneGrid& zg = g.grid;
-      const int ti = tier_index(zg.tier);
-      ZoneGrid::OperationLayer layer;
-      layer.operation = src.name;
-      const std::size_t ncell = static_cast<std::size_t>(zg.nx) * zg.ny;
-      layer.state.assign(ncell, CellState::outside);
-      layer.ratio_controlled.assign(ncell, 0.0);
-      layer.ratio_uncontrolled.assign(ncell, 0.0);
-
-      // Body lines: one per evaluated cell centre, plus 2×2 sub-points in cells near the antenna.
-      std::vector<Eigen::Vector3d> pts;
-      std::vector<std::size_t> owner;  // cell of each body line
-      for (int j = 0; j < zg.ny; ++j)
-        for (int i = 0; i < zg.nx; ++i) {
-          const std::size_t c = static_cast<std::size_t>(j) * zg.nx + i;
-          if (zg.state[c] == CellState::outside) continue;
-          const PlanPoint centre{zg.origin_x_m + i * s, zg.origin_y_m + j * s};
-          add_body_line(pts, centre.x_m, centre.y_m, g.floor);
-          owner.push_back(c);
-          if (plan_distance_to_antenna(src, centre) <= opt.refine_radius_m) {
-            for (int q = 0; q < 4; ++q) {
-              const double dx = (q % 2 == 0 ? -0.25 : 0.25) * s;
-              const double dy = (q / 2 == 0 ? -0.25 : 0.25) * s;
-              add_body_line(pts, centre.x_m + dx, centre.y_m + dy, g.floor);
-              owner.push_back(c);
-            }
-          }
-        }
-      const auto f = compute_fields(src.field, pts, threads);
-
-      // Reduce: a cell takes the largest ratio of its body lines; any invalid line → not evaluated.
-      std::vector<bool> bad(ncell, false);
-      std::vector<BodyResult> cell_best(ncell);
-      std::vector<Eigen::Vector3d> cell_best_at(ncell);
-      for (std::size_t b = 0; b < owner.size(); ++b) {
-        const std::size_t c = owner[b];
-        const BodyResult r = reduce_body(&f[b * kBodySamples], lim);
-        if (!r.valid) {
-          if (!bad[c]) {
-            bad[c] = true;
-            const auto& p = pts[b * kBodySamples];
-            note_not_evaluated(op, SitePoint{p.x(), p.y(), g.floor}, zg.zone,
-                               "within the model's validity limit (e.g. closer than 3 wire radii to a wire, or in "
-                               "the reactive near field of a screening model) — not evaluated, measure or use "
-                               "another method");
-          }
-          continue;
-        }
-        layer.state[c] = CellState::evaluated;
-        BodyResult& best = cell_best[c];
-        if (!best.valid || r.avg[ti].value > best.avg[ti].value) {
-          best.avg[ti] = r.avg[ti];
-          best.peak[ti] = r.peak[ti];
-          best.peak_sample[ti] = r.peak_sample[ti];
-          best.e_at_peak[ti] = r.e_at_peak[ti];
-          best.h_at_peak[ti] = r.h_at_peak[ti];
-          cell_best_at[c] = pts[b * kBodySamples + static_cast<std::size_t>(r.peak_sample[ti])];
-        }
-        best.valid = true;
-        layer.ratio_controlled[c] = std::max(layer.ratio_controlled[c], r.avg[0].value);
-        layer.ratio_uncontrolled[c] = std::max(layer.ratio_uncontrolled[c], r.avg[1].value);
-      }
-      for (std::size_t c = 0; c < ncell; ++c) {
-        if (zg.state[c] == CellState::outside) continue;
-        if (bad[c]) {
-          layer.state[c] = CellState::not_evaluated;
-          layer.ratio_controlled[c] = 0.0;
-          layer.ratio_uncontrolled[c] = 0.0;
-          g.grid.state[c] = CellState::not_evaluated;
-          continue;
-        }
-        const BodyResult& best = cell_best[c];
-        if (!best.valid) continue;
-        PlaceExposure pe;
-        pe.at = SitePoint{cell_best_at[c].x(), cell_best_at[c].y(), cell_best_at[c].z()};
-        pe.zone = zg.zone;
-        pe.tier = zg.tier;
-        pe.ratio = best.avg[ti].value;
-        pe.peak_ratio = best.peak[ti];
-        pe.quantity = best.avg[ti].quantity;
-        pe.e_v_per_m = best.e_at_peak[ti];
-        pe.h_a_per_m = best.h_at_peak[ti];
-        consider_worst(op.worst, any, pe);
-      }
-      g.grid.layers.push_back(std::move(layer));
+      evaluate_grid(g, src, lim, opt, threads, op, any);
       tick();
     }
 

@@ -84,6 +84,9 @@ struct EvaluationOptions {
   double grid_spacing_m = 0.5;
   double refine_radius_m = 2.0;   // cells within this plan distance of an antenna get 2×2 sub-points
   unsigned threads = 0;           // 0 = all cores (std::thread::hardware_concurrency)
+  // Below 75 MHz, compute a 1 m sub-grid first and estimate cells far from the antenna whose
+  // neighbours are all below 5 % of the limits (docs/methods.md). false = compute every cell.
+  bool coarse_first = true;
   // Called with the fraction done (0..1) from the calling thread; may be empty.
   std::function<void(double)> progress;
 };

@@ -1,5 +1,6 @@
 #include "exposure/screening.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <sstream>
 
@@ -112,9 +113,11 @@ double steps_to_value(double k, double step) {
 
 double ceil_to(double value, double step) {
   // A tiny allowance so that a value already on the grid (up to rounding noise) stays there.
-  return steps_to_value(std::ceil(value / step - 1e-9), step);
+  return std::max(0.0, steps_to_value(std::ceil(value / step - 1e-9), step)) + 0.0;  // never "-0"
 }
 
-double floor_to(double value, double step) { return steps_to_value(std::floor(value / step + 1e-9), step); }
+double floor_to(double value, double step) {
+  return std::max(0.0, steps_to_value(std::floor(value / step + 1e-9), step)) + 0.0;
+}
 
 }  // namespace standoff::exposure

@@ -195,7 +195,8 @@ LineRun run_line(const FeedLine& line, units::Length length, units::Frequency f,
   r.swr_load = swr_from_reflection(r.gamma_load);
   r.swr_input = swr_from_reflection(r.gamma_load / a);
   r.total_loss_db = total_loss_db(r.matched_loss_db, r.gamma_load);
-  r.mismatch_loss_db = std::max(0.0, r.total_loss_db - r.matched_loss_db);  // ≥ 0; clears rounding noise
+  r.mismatch_loss_db = r.total_loss_db - r.matched_loss_db;
+  if (r.mismatch_loss_db < 1e-12) r.mismatch_loss_db = 0.0;  // ≥ 0 by theory; clears rounding noise
   r.input = input;
   r.delivered = input / std::pow(10.0, r.total_loss_db / 10.0);
   return r;

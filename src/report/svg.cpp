@@ -204,8 +204,10 @@ std::string site_map_svg(const Record& r, bool standalone) {
   f.top = 34.0;
   const double map_h = (b.ymax - b.ymin) * f.scale;
   const int legend_rows = 7;
-  const double legend_top = f.top + map_h + 16.0;
-  const double height = legend_top + 22.0 * legend_rows + 16.0;
+  const double scale_top = f.top + map_h + 8.0;  // scale bar under the map, clear of its contents
+  const double legend_top = scale_top + 30.0;
+  const double lines_key_top = legend_top + 22.0 * legend_rows + 20.0;
+  const double height = lines_key_top + 18.0 * static_cast<double>(m.power_lines.size()) + 12.0;
 
   std::string s = svg_open("site-map", width, height, standalone,
                            "Site map of " + r.meta.station_name + ": zones, antennas, power lines and exposure contours");
@@ -373,10 +375,27 @@ std::string site_map_svg(const Record& r, bool standalone) {
     s += label(f.X(lowest->x_m) + 4, f.Y(lowest->y_m) - 4, z.name + " (" + tier_name(z.tier) + ")", "start",
                z.tier == limits::Tier::controlled ? palette::blue : "#00664a", " font-style=\"italic\"");
   }
+  // A power line is named along its longest segment; its voltage and height are in the key below.
   for (const auto& l : m.power_lines) {
     if (l.path.size() < 2) continue;
-    const auto& p = l.path[l.path.size() / 2 - (l.path.size() % 2 == 0 ? 1 : 0)];
-    s += label(f.X(p.x_m) + 4, f.Y(p.y_m) - 6, "power line " + l.name + (l.detail.empty() ? "" : " — " + l.detail));
+    std::size_t longest = 0;
+    double best = -1.0;
+    for (std::size_t k = 0; k + 1 < l.path.size(); ++k) {
+      const double len = std::hypot(l.path[k + 1].x_m - l.path[k].x_m, l.path[k + 1].y_m - l.path[k].y_m);
+      if (len > best) {
+        best = len;
+        longest = k;
+      }
+    }
+    const auto& a = l.path[longest];
+    const auto& b = l.path[longest + 1];
+    const double mx = f.X(0.5 * (a.x_m + b.x_m)), my = f.Y(0.5 * (a.y_m + b.y_m));
+    double deg = std::atan2(f.Y(b.y_m) - f.Y(a.y_m), f.X(b.x_m) - f.X(a.x_m)) * 180.0 / std::numbers::pi;
+    if (deg > 90.0) deg -= 180.0;  // keep the text upright
+    if (deg <= -90.0) deg += 180.0;
+    s += fmt::format("<g transform=\"translate({},{}) rotate({})\">", svg_num(mx), svg_num(my), svg_num(deg));
+    s += label(0, -6, l.name, "middle");
+    s += "</g>\n";
   }
   for (const auto& a : m.antennas) {
     PlanPoint at{};
@@ -407,7 +426,7 @@ std::string site_map_svg(const Record& r, bool standalone) {
   // Scale bar (bottom left of the map): a round length near a fifth of the map's width.
   {
     const double metres = nice_below((b.xmax - b.xmin) / 5.0);
-    const double x = f.left + 12, y = f.top + map_h - 14, w = metres * f.scale;
+    const double x = f.left, y = scale_top, w = metres * f.scale;
     s += "<g id=\"sm-scale\">";
     s += fmt::format("<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"5\" fill=\"#ffffff\" stroke=\"#000000\"/>",
                      svg_num(x), svg_num(y), svg_num(w));
@@ -456,7 +475,18 @@ std::string site_map_svg(const Record& r, bool standalone) {
     s += fmt::format("<g transform=\"translate({},{})\">{}</g>", svg_num(x), svg_num(y - 4), items[k].swatch);
     s += label(x + 36, y, items[k].text);
   }
-  s += "</g>\n</svg>\n";
+  s += "</g>\n";
+  // Key of the power lines: voltage and conductor height as stated (or unknown).
+  if (!m.power_lines.empty()) {
+    s += "<g id=\"sm-lines-key\">\n";
+    for (std::size_t k = 0; k < m.power_lines.size(); ++k) {
+      const auto& l = m.power_lines[k];
+      s += label(20, lines_key_top + 18.0 * static_cast<double>(k),
+                 "Power line " + l.name + (l.detail.empty() ? "" : ": " + l.detail));
+    }
+    s += "</g>\n";
+  }
+  s += "</svg>\n";
   return s;
 }
 

@@ -53,12 +53,12 @@ RefIntegrals reference(const em::kernel::Line& p, const em::kernel::Line& q, dou
             return part == 0 ? (g * nb).real() : (g * nb).imag();
           };
           double v = 0.0;
-          if (s0 > 0.0) v += GK::integrate(inner, 0.0, s0, 20, 1e-12);
-          if (s0 < q.length) v += GK::integrate(inner, s0, q.length, 20, 1e-12);
+          if (s0 > 0.0) v += GK::integrate(inner, 0.0, s0, 12, 1e-10);
+          if (s0 < q.length) v += GK::integrate(inner, s0, q.length, 12, 1e-10);
           const double na = alpha == 2 ? 1.0 : (alpha == 1 ? s / p.length : 1.0 - s / p.length);
           return na * v;
         };
-        const double v = GK::integrate(outer, 0.0, p.length, 20, 1e-11);
+        const double v = GK::integrate(outer, 0.0, p.length, 12, 1e-9);
         cd& dst = alpha == 2 ? out.t : out.s[alpha][beta];
         dst += part == 0 ? cd(v, 0.0) : cd(0.0, v);
       }
@@ -109,8 +109,9 @@ TEST_CASE("Fresnel reflection coefficients: limits and normal incidence", "[em][
   CHECK(std::abs(rh + expect) < 1e-14);
   const double cos_t = GENERATE(0.05, 0.3, 0.7, 1.0);
   const auto [rv2, rh2] = em::kernel::reflection(cd(10.0, -1e9), cos_t);
-  CHECK(std::abs(rv2 - 1.0) < 1e-3);  // |εc| = 1e9: deviation ~ 1/√|εc|/cosθ
-  CHECK(std::abs(rh2 + 1.0) < 1e-3);
+  // |εc| = 1e9: R_v ≈ 1 − 2/(√εc cosθ) and R_h ≈ −1 + 2cosθ/√εc (first order in 1/√εc).
+  CHECK(std::abs(rv2 - 1.0) < 2.5 / (std::sqrt(1e9) * cos_t));
+  CHECK(std::abs(rh2 + 1.0) < 2.5 * cos_t / std::sqrt(1e9));
   // Grazing incidence: both coefficients → −1 (Balanis §4.8 Fig. 4.28 discussion).
   const auto [rv3, rh3] = em::kernel::reflection(eps, 0.0);
   CHECK(std::abs(rv3 + 1.0) < 1e-12);

@@ -184,3 +184,32 @@ TEST_CASE("rounding: distances up to 0.1 m, power down to 3 significant figures"
   CHECK(ex::round_down_power(6519.9) == Approx(6510.0));
   CHECK(ex::round_down_power(6.5199) == Approx(6.51));
 }
+
+TEST_CASE("coarse-first grids: same worst place as the full grid, estimates only far below the limit",
+          "[closed_form]") {
+  const auto sol = hf_dipole();
+  auto in = dipole_input(sol, 400.0);
+  in.zones = {square_zone("yard", Tier::uncontrolled, -10.0, -10.0, 20.0)};
+  ex::EvaluationOptions full, fast;
+  full.threads = fast.threads = 2;
+  full.coarse_first = false;
+  const auto a = ex::evaluate(in, full);
+  const auto b = ex::evaluate(in, fast);
+  // The worst place is computed in both (it is near the antenna or above the 5 % threshold).
+  CHECK(b.operations[0].worst.ratio == a.operations[0].worst.ratio);
+  CHECK(b.operations[0].worst.at.x_m == a.operations[0].worst.at.x_m);
+  CHECK(b.operations[0].worst.at.y_m == a.operations[0].worst.at.y_m);
+  const auto& la = a.grids[0].layers[0];
+  const auto& lb = b.grids[0].layers[0];
+  std::size_t estimated = 0;
+  for (std::size_t c = 0; c < la.ratio_uncontrolled.size(); ++c) {
+    if (lb.ratio_uncontrolled[c] == la.ratio_uncontrolled[c]) continue;  // computed in both
+    ++estimated;
+    // Estimated cells: below the 5 % threshold, and within a factor 2 of the computed value
+    // (the field changes slowly more than 3 m from the wire at λ = 21 m).
+    CHECK(lb.ratio_uncontrolled[c] < 0.05);
+    CHECK(lb.ratio_uncontrolled[c] == Approx(la.ratio_uncontrolled[c]).epsilon(1.0));
+    CHECK(la.ratio_uncontrolled[c] < 0.05);
+  }
+  CHECK(estimated > 0);
+}

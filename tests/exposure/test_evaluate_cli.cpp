@@ -6,6 +6,9 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <filesystem>
+#include <unistd.h>
+#include <fstream>
 #include <sstream>
 
 #include <nlohmann/json.hpp>
@@ -29,9 +32,15 @@ Result run_cli(const std::vector<std::string>& args) {
 
 const std::string kDemoFile = std::string(STANDOFF_SOURCE_DIR) + "/docs/examples/demo-station.toml";
 
+std::filesystem::path demo_out_dir() {
+  return std::filesystem::temp_directory_path() / ("standoff-demo-out-" + std::to_string(::getpid()));
+}
+
+// One full demo run shared by the tests: --json and --out together.
 const json& demo_json() {
   static const json j = [] {
-    const auto r = run_cli({"demo", "--json", "--threads", "2"});
+    std::filesystem::remove_all(demo_out_dir());
+    const auto r = run_cli({"demo", "--json", "--threads", "2", "--out", demo_out_dir().string()});
     INFO(r.err);
     REQUIRE(r.code == 1);  // the demo has a finding on purpose: exit 1
     return json::parse(r.out);
@@ -68,6 +77,17 @@ TEST_CASE("demo --json holds the issue-5 contract", "[cli]") {
     if (op["max_ratio"].is_number() && op["max_ratio"].get<double>() > 1.0) some_exceeds = true;
   }
   CHECK(some_exceeds);  // the demo shows what a finding looks like
+}
+
+TEST_CASE("demo --out writes the report files through the report writers", "[cli]") {
+  demo_json();
+  for (const char* f : {"report.html", "report.md", "report.json", "site-map.svg"})
+    CHECK(std::filesystem::exists(demo_out_dir() / f));
+  // The JSON file is the same record as --json printed (one JSON producer).
+  std::ifstream in(demo_out_dir() / "report.json");
+  const json file = json::parse(in);
+  CHECK(file["operations"] == demo_json()["operations"]);
+  std::filesystem::remove_all(demo_out_dir());
 }
 
 TEST_CASE("evaluate docs/examples/demo-station.toml --json equals demo", "[cli]") {
