@@ -207,7 +207,7 @@ void segment_field(const Eigen::Vector3d& r, const Line& seg, cd ia, cd ib, doub
                                           grad.x() * t.y() - grad.y() * t.x());
   };
   if (dist > 3.0 * seg.length) {
-    const Rule g = gauss_legendre(dist > 10.0 * seg.length ? 3 : 5);
+    const Rule g = gauss_legendre(dist > 10.0 * seg.length ? 2 : 4);
     for (std::size_t i = 0; i < g.x.size(); ++i) add(g.x[i] * seg.length, g.w[i] * seg.length);
   } else {
     static thread_local std::vector<double> bp;

@@ -125,3 +125,29 @@ TEST_CASE("coax classes: fit through the listed points and refusal outside them"
     CHECK_THROWS_AS(characteristics(*l, units::hertz(5e9)), InputError);
   }
 }
+
+TEST_CASE("feed-line table loader refuses bad files with file and line", "[feedline]") {
+  using Catch::Matchers::Contains;
+  struct Bad { const char* text; const char* expect; };
+  auto b = GENERATE(
+      Bad{"[[coax]]\nname = \"c\"\nz0 = \"50 ohm\"\nvelocity_factor = 0.66\nf_mhz = [1.0, 10.0]\n"
+          "loss_db_per_100ft = [0.2]\nsource = \"s\"\nconfidence = \"verify\"\n",
+          "as many values"},
+      Bad{"[[coax]]\nname = \"c\"\nz0 = \"50\"\nvelocity_factor = 0.66\nf_mhz = [1.0, 10.0]\n"
+          "loss_db_per_100ft = [0.2, 0.6]\nsource = \"s\"\nconfidence = \"verify\"\n",
+          "l.toml:3"},
+      Bad{"[[coax]]\nname = \"c\"\nz0 = \"50 ohm\"\nvelocity_factor = 1.2\nf_mhz = [1.0, 10.0]\n"
+          "loss_db_per_100ft = [0.2, 0.6]\nsource = \"s\"\nconfidence = \"verify\"\n",
+          "at most 1"},
+      Bad{"[[coax]]\nname = \"c\"\nz0 = \"50 ohm\"\nvelocity_factor = 0.66\nf_mhz = [10.0, 1.0]\n"
+          "loss_db_per_100ft = [0.2, 0.6]\nsource = \"s\"\nconfidence = \"verify\"\n",
+          "rise strictly"},
+      Bad{"[[parallel_wire]]\nname = \"p\"\nconductor_diameter = \"2 mm\"\nspacing = \"1 mm\"\n"
+          "velocity_factor = 1.0\nmaterial = \"copper\"\n",
+          "l.toml:4"},
+      Bad{"[[parallel_wire]]\nname = \"p\"\nconductor_diameter = \"2 mm\"\nspacing = \"100 mm\"\n"
+          "velocity_factor = 1.0\nmaterial = \"silver\"\n",
+          "unknown material"});
+  CAPTURE(b.text);
+  CHECK_THROWS_WITH(load_feedline_table(b.text, "l.toml"), Contains(b.expect));
+}
