@@ -44,6 +44,7 @@ struct Ctx {
   int line = 0;      // line of the table being read
 
   std::string field(std::string_view key) const {
+    if (key.empty()) return path;
     return path.empty() ? std::string(key) : path + "." + std::string(key);
   }
   [[noreturn]] void fail(std::string_view key, const std::string& msg, int at_line = 0) const {

@@ -184,8 +184,21 @@ Built build(const Station& st, const BuildOptions& options) {
     // Limits at this frequency for both tiers (outside the table: an error, never extrapolated).
     exposure::SourceLimits lim;
     const Where wf = where_in(st, "operation", oi, op.line, "frequency");
-    lim.controlled = limits::lookup(table, limits::Tier::controlled, op.frequency, wf);
+    // A table without one tier (e.g. Safety Code 6 here: uncontrolled only) evaluates that tier's
+    // zones against the other tier's limits, choosing the stricter (uncontrolled) whenever present.
+    const bool has_c = table.find(limits::Tier::controlled) != nullptr;
+    const bool has_u = table.find(limits::Tier::uncontrolled) != nullptr;
+    if (!has_u)
+      throw InputError(Where{st.file, 0, "station.standard"},
+                       "the " + limits::to_string(out.standard) +
+                           " table has no uncontrolled tier: the public cannot be evaluated with it");
     lim.uncontrolled = limits::lookup(table, limits::Tier::uncontrolled, op.frequency, wf);
+    lim.controlled = has_c ? limits::lookup(table, limits::Tier::controlled, op.frequency, wf) : lim.uncontrolled;
+    if (!has_c)
+      src.notes.push_back("the " + limits::to_string(out.standard) +
+                          " table has no controlled tier: controlled zones are evaluated against the uncontrolled "
+                          "limits (more protective)");
+
 
     // Duty and operating pattern.
     power::ChainInput ci;

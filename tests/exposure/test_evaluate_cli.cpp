@@ -50,7 +50,8 @@ const json& demo_json() {
 
 }  // namespace
 
-TEST_CASE("demo --json holds the issue-5 contract", "[cli]") {
+TEST_CASE("demo and evaluate of the demo station: contract, report files, equality, text", "[cli]") {
+ SECTION("demo --json holds the issue-5 contract") {
   const json& j = demo_json();
   REQUIRE(j.contains("verdict"));
   CHECK(j["verdict"] == "exceeds");
@@ -77,9 +78,8 @@ TEST_CASE("demo --json holds the issue-5 contract", "[cli]") {
     if (op["max_ratio"].is_number() && op["max_ratio"].get<double>() > 1.0) some_exceeds = true;
   }
   CHECK(some_exceeds);  // the demo shows what a finding looks like
-}
-
-TEST_CASE("demo --out writes the report files through the report writers", "[cli]") {
+ }
+ SECTION("demo --out writes the report files through the report writers") {
   demo_json();
   for (const char* f : {"report.html", "report.md", "report.json", "site-map.svg"})
     CHECK(std::filesystem::exists(demo_out_dir() / f));
@@ -88,9 +88,8 @@ TEST_CASE("demo --out writes the report files through the report writers", "[cli
   const json file = json::parse(in);
   CHECK(file["operations"] == demo_json()["operations"]);
   std::filesystem::remove_all(demo_out_dir());
-}
-
-TEST_CASE("evaluate docs/examples/demo-station.toml --json equals demo", "[cli]") {
+ }
+ SECTION("evaluate docs/examples/demo-station.toml --json equals demo") {
   const auto r = run_cli({"evaluate", kDemoFile, "--json", "--threads", "1"});
   INFO(r.err);
   REQUIRE(r.code == 1);
@@ -104,14 +103,14 @@ TEST_CASE("evaluate docs/examples/demo-station.toml --json equals demo", "[cli]"
   CHECK(a["operations"] == b["operations"]);  // also: 1 thread vs 2 threads give identical numbers
   CHECK(a["verdict"] == b["verdict"]);
   CHECK(a["station"]["input_sha256"] == b["station"]["input_sha256"]);
-}
-
-TEST_CASE("demo prints one row per operation and the cautions", "[cli]") {
+ }
+ SECTION("demo prints one row per operation and the cautions") {
   const auto r = run_cli({"demo", "--threads", "2"});
   CHECK(r.code == 1);
   for (const auto& op : demo_json()["operations"]) CHECK(r.out.find(op["name"].get<std::string>()) != std::string::npos);
   CHECK(r.out.find("utility") != std::string::npos);
   CHECK(r.err.empty());  // no progress output when not on a terminal
+ }
 }
 
 TEST_CASE("field --at gives E, H and ratios at a point", "[cli]") {
