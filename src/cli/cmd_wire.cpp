@@ -116,6 +116,7 @@ struct Result {
   std::vector<std::string> warnings;
   std::optional<double> resonant_length;
   std::optional<LineResult> line;
+  std::optional<std::complex<double>> perfect_ground_z;  // beside a real-ground result for low wires
 };
 
 double swr_of(std::complex<double> z, double z0) {
@@ -146,6 +147,19 @@ Result evaluate_at(const WireOptions& o, const Setup& s, double f, double length
   r.warnings = sol.warnings;
   if (const em::GroundClass* gc = em::ground_class_of(s.ground); gc && gc->confidence == "convention")
     r.warnings.push_back("ground \"" + gc->name + "\" is a literature convention, not an ITU-R P.527 class");
+  if (s.ground.kind == em::GroundKind::real) {
+    bool low = false;
+    for (const auto& w : sol.warnings) low = low || w.find("0.1 lambda") != std::string::npos;
+    if (low) {
+      // MOM-NOTES §4: below about 0.1 λ report the perfect-ground result beside the real-ground one.
+      Setup sp = s;
+      sp.ground = em::perfect_ground();
+      em::SolveOptions po = so;
+      po.integrate_pattern = false;
+      em::Model pm = build(sp, f, r.length);
+      r.perfect_ground_z = em::solve(pm, po).impedance();
+    }
+  }
   if (s.ground.kind == em::GroundKind::real)
     r.warnings.push_back("real ground by the reflection-coefficient approximation: efficiency includes ground loss; "
                          "surface waves are not modelled");
@@ -185,6 +199,8 @@ json to_json(const Result& r) {
   j["segments"] = r.segments;
   j["warnings"] = r.warnings;
   if (r.resonant_length) j["resonant_length_m"] = *r.resonant_length;
+  if (r.perfect_ground_z)
+    j["perfect_ground_impedance_ohm"] = {{"re", r.perfect_ground_z->real()}, {"im", r.perfect_ground_z->imag()}};
   if (r.line) {
     json l;
     l["name"] = r.line->name;
@@ -214,6 +230,9 @@ void print_text(std::ostream& out, const Result& r) {
   }
   out << "\n  peak gain " << sig(r.gain_dbi, 3) << " dBi, efficiency " << sig(100.0 * r.efficiency, 4) << " %, "
       << r.segments << " segments\n";
+  if (r.perfect_ground_z)
+    out << "  over perfect ground instead: " << sig(r.perfect_ground_z->real(), 4)
+        << (r.perfect_ground_z->imag() < 0 ? " - j" : " + j") << sig(std::abs(r.perfect_ground_z->imag()), 4) << " ohm\n";
   for (const auto& w : r.warnings) out << "  warning: " << w << "\n";
 }
 

@@ -530,7 +530,13 @@ StationEvaluation evaluate(const EvaluationInput& in, const EvaluationOptions& o
     tick();
 
     op.evaluated_anywhere = any;
-    if (any && op.worst.ratio > 0.0) op.permitted_pep_w = round_down_power(op.pep_w / op.worst.ratio);
+    if (any && op.worst.ratio > 0.0) {
+      op.permitted_pep_w = round_down_power(op.pep_w / op.worst.ratio);
+      if (*op.permitted_pep_w > op.pep_w)
+        op.notes.push_back("permitted PEP is the exposure limit alone, with the same mode, pattern, line and "
+                           "antenna; the licence, the equipment ratings and feed-line and antenna power ratings may "
+                           "limit the power far below it");
+    }
     if (any && op.worst.ratio > 1.0) op.verdict = Verdict::exceeds;
     else if (!any || op.not_evaluated_count > 0) op.verdict = Verdict::not_evaluated;
     else op.verdict = Verdict::within;

@@ -69,6 +69,11 @@ TEST_CASE("wire: sweep, line and ground options", "[em][cli]") {
   bool flagged = false;
   for (const auto& w : jl["warnings"]) flagged = flagged || w.get<std::string>().find("convention") != std::string::npos;
   CHECK(flagged);
+  // A wire below 0.1 λ over real ground: flagged, with the perfect-ground result beside it
+  // (MOM-NOTES §4).
+  const auto low = run({"wire", "dipole", "--freq", "7.1MHz", "--height", "3m", "--ground", "wet-ground", "--json"});
+  REQUIRE(low.code == 0);
+  CHECK(nlohmann::json::parse(low.out).contains("perfect_ground_impedance_ohm"));
   const auto t = run({"wire", "yagi3", "--freq", "28.4MHz", "--height", "12m", "--ground", "wet-ground"});
   CHECK(t.code == 0);
   CHECK(t.out.find("peak gain") != std::string::npos);

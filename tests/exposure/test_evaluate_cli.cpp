@@ -3,15 +3,14 @@
 // frequency_hz, pep_w, average_power_w, max_ratio, max_at {x_m,y_m,z_m}, zone, tier,
 // permitted_pep_w, screening_distance_m and detailed_distance_m {controlled, uncontrolled}, method,
 // notes), exit codes per DESIGN.md, demo == evaluate of the same file, and the demo's finding.
-#include <catch2/catch.hpp>
+#include <unistd.h>
 
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <filesystem>
-#include <unistd.h>
 #include <fstream>
-#include <sstream>
-
 #include <nlohmann/json.hpp>
+#include <sstream>
 
 #include "cli/run.hpp"
 
@@ -51,70 +50,72 @@ const json& demo_json() {
 }  // namespace
 
 TEST_CASE("demo and evaluate of the demo station: contract, report files, equality, text", "[cli]") {
- SECTION("demo --json holds the issue-5 contract") {
-  const json& j = demo_json();
-  REQUIRE(j.contains("verdict"));
-  CHECK(j["verdict"] == "exceeds");
-  REQUIRE(j["operations"].is_array());
-  REQUIRE(j["operations"].size() >= 5);
-  bool some_exceeds = false;
-  for (const auto& op : j["operations"]) {
-    CAPTURE(op["name"]);
-    for (const char* k : {"name", "frequency_hz", "pep_w", "average_power_w", "max_ratio", "max_at", "zone", "tier",
-                          "permitted_pep_w", "screening_distance_m", "detailed_distance_m", "method", "notes"})
-      CHECK(op.contains(k));
-    for (const char* k : {"x_m", "y_m", "z_m"}) CHECK(op["max_at"].contains(k));
-    for (const char* d : {"screening_distance_m", "detailed_distance_m"})
-      for (const char* t : {"controlled", "uncontrolled"}) CHECK(op[d].contains(t));
-    CHECK(op["frequency_hz"].get<double>() > 0.0);
-    CHECK(op["average_power_w"].get<double>() <= op["pep_w"].get<double>());
-    CHECK(op["notes"].is_array());
-    // Permitted PEP × worst ratio = PEP (rounded down to 3 significant figures: within 1 % below).
-    if (op["permitted_pep_w"].is_number()) {
-      const double prod = op["permitted_pep_w"].get<double>() * op["max_ratio"].get<double>();
-      CHECK(prod <= op["pep_w"].get<double>() * (1 + 1e-12));
-      CHECK(prod >= 0.99 * op["pep_w"].get<double>());
+  SECTION("demo --json holds the issue-5 contract") {
+    const json& j = demo_json();
+    REQUIRE(j.contains("verdict"));
+    CHECK(j["verdict"] == "exceeds");
+    REQUIRE(j["operations"].is_array());
+    REQUIRE(j["operations"].size() >= 5);
+    bool some_exceeds = false;
+    for (const auto& op : j["operations"]) {
+      CAPTURE(op["name"]);
+      for (const char* k : {"name", "frequency_hz", "pep_w", "average_power_w", "max_ratio", "max_at", "zone", "tier",
+                            "permitted_pep_w", "screening_distance_m", "detailed_distance_m", "method", "notes"})
+        CHECK(op.contains(k));
+      for (const char* k : {"x_m", "y_m", "z_m"}) CHECK(op["max_at"].contains(k));
+      for (const char* d : {"screening_distance_m", "detailed_distance_m"})
+        for (const char* t : {"controlled", "uncontrolled"}) CHECK(op[d].contains(t));
+      CHECK(op["frequency_hz"].get<double>() > 0.0);
+      CHECK(op["average_power_w"].get<double>() <= op["pep_w"].get<double>());
+      CHECK(op["notes"].is_array());
+      // Permitted PEP × worst ratio = PEP (rounded down to 3 significant figures: within 1 % below).
+      if (op["permitted_pep_w"].is_number()) {
+        const double prod = op["permitted_pep_w"].get<double>() * op["max_ratio"].get<double>();
+        CHECK(prod <= op["pep_w"].get<double>() * (1 + 1e-12));
+        CHECK(prod >= 0.99 * op["pep_w"].get<double>());
+      }
+      if (op["max_ratio"].is_number() && op["max_ratio"].get<double>() > 1.0) some_exceeds = true;
     }
-    if (op["max_ratio"].is_number() && op["max_ratio"].get<double>() > 1.0) some_exceeds = true;
+    CHECK(some_exceeds);  // the demo shows what a finding looks like
   }
-  CHECK(some_exceeds);  // the demo shows what a finding looks like
- }
- SECTION("demo --out writes the report files through the report writers") {
-  demo_json();
-  for (const char* f : {"report.html", "report.md", "report.json", "site-map.svg"})
-    CHECK(std::filesystem::exists(demo_out_dir() / f));
-  // The JSON file is the same record as --json printed (one JSON producer).
-  std::ifstream in(demo_out_dir() / "report.json");
-  const json file = json::parse(in);
-  CHECK(file["operations"] == demo_json()["operations"]);
-  std::filesystem::remove_all(demo_out_dir());
- }
- SECTION("evaluate docs/examples/demo-station.toml --json equals demo") {
-  const auto r = run_cli({"evaluate", kDemoFile, "--json", "--threads", "1"});
-  INFO(r.err);
-  REQUIRE(r.code == 1);
-  json a = json::parse(r.out);
-  json b = demo_json();
-  // Same station, same results; only the date and the input file's name may differ.
-  for (json* j : {&a, &b}) {
-    j->erase("date");
-    (*j)["station"].erase("input_file");
+  SECTION("demo --out writes the report files through the report writers") {
+    demo_json();
+    for (const char* f : {"report.html", "report.md", "report.json", "site-map.svg"})
+      CHECK(std::filesystem::exists(demo_out_dir() / f));
+    // The JSON file is the same record as --json printed (one JSON producer).
+    std::ifstream in(demo_out_dir() / "report.json");
+    const json file = json::parse(in);
+    CHECK(file["operations"] == demo_json()["operations"]);
+    std::filesystem::remove_all(demo_out_dir());
   }
-  CHECK(a["operations"] == b["operations"]);  // also: 1 thread vs 2 threads give identical numbers
-  CHECK(a["verdict"] == b["verdict"]);
-  CHECK(a["station"]["input_sha256"] == b["station"]["input_sha256"]);
- }
- SECTION("demo prints one row per operation and the cautions") {
-  const auto r = run_cli({"demo", "--threads", "2"});
-  CHECK(r.code == 1);
-  for (const auto& op : demo_json()["operations"]) CHECK(r.out.find(op["name"].get<std::string>()) != std::string::npos);
-  CHECK(r.out.find("utility") != std::string::npos);
-  CHECK(r.err.empty());  // no progress output when not on a terminal
- }
+  SECTION("evaluate docs/examples/demo-station.toml --json equals demo") {
+    const auto r = run_cli({"evaluate", kDemoFile, "--json", "--threads", "1"});
+    INFO(r.err);
+    REQUIRE(r.code == 1);
+    json a = json::parse(r.out);
+    json b = demo_json();
+    // Same station, same results; only the date and the input file's name may differ.
+    for (json* j : {&a, &b}) {
+      j->erase("date");
+      (*j)["station"].erase("input_file");
+    }
+    CHECK(a["operations"] == b["operations"]);  // also: 1 thread vs 2 threads give identical numbers
+    CHECK(a["verdict"] == b["verdict"]);
+    CHECK(a["station"]["input_sha256"] == b["station"]["input_sha256"]);
+  }
+  SECTION("demo prints one row per operation and the cautions") {
+    const auto r = run_cli({"demo", "--threads", "2"});
+    CHECK(r.code == 1);
+    for (const auto& op : demo_json()["operations"])
+      CHECK(r.out.find(op["name"].get<std::string>()) != std::string::npos);
+    CHECK(r.out.find("utility") != std::string::npos);
+    CHECK(r.err.empty());  // no progress output when not on a terminal
+  }
 }
 
 TEST_CASE("field --at gives E, H and ratios at a point", "[cli]") {
-  const auto r = run_cli({"field", kDemoFile, "--at", "30m,20m,1.5m", "--operation", "2 m FM on the collinear", "--json"});
+  const auto r =
+      run_cli({"field", kDemoFile, "--at", "30m,20m,1.5m", "--operation", "2 m FM on the collinear", "--json"});
   INFO(r.err);
   REQUIRE((r.code == 0 || r.code == 1));
   const json j = json::parse(r.out);

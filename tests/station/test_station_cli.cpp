@@ -6,6 +6,8 @@
 #include <fstream>
 #include <sstream>
 
+#include <nlohmann/json.hpp>
+
 #include "cli/run.hpp"
 #include "station/station_toml.hpp"
 
@@ -78,4 +80,29 @@ TEST_CASE("a missing station file is exit 2", "[cli][station]") {
   const auto r = run_cli({"evaluate", "/nonexistent/station.toml"});
   CHECK(r.code == 2);
   CHECK(r.err.find("/nonexistent/station.toml") != std::string::npos);
+}
+
+TEST_CASE("the user guide's complete example evaluates", "[cli][station]") {
+  std::ifstream in(std::string(STANDOFF_SOURCE_DIR) + "/docs/user-guide.md");
+  REQUIRE(in);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  const std::string guide = ss.str();
+  const std::string begin = "<!-- complete example: begin -->\n```toml\n";
+  const auto b = guide.find(begin);
+  const auto e = guide.find("```\n<!-- complete example: end -->", b);
+  REQUIRE(b != std::string::npos);
+  REQUIRE(e != std::string::npos);
+  const fs::path dir = scratch_dir();
+  const fs::path file = dir / "example.toml";
+  {
+    std::ofstream f(file);
+    f << guide.substr(b + begin.size(), e - b - begin.size());
+  }
+  const auto r = run_cli({"evaluate", file.string(), "--json", "--threads", "2"});
+  INFO(r.err);
+  CHECK((r.code == 0 || r.code == 1));
+  const auto j = nlohmann::json::parse(r.out);
+  CHECK(j["operations"].size() == 2);
+  fs::remove_all(dir);
 }
