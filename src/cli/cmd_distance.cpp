@@ -312,6 +312,11 @@ void add_distance(CLI::App& root, Commands& commands) {
       if (!(person->value() > 0.0)) throw InputError(option_where("--distance"), "must be above zero");
     }
 
+    if (dish) {
+      // The dish's own gain G = 4πηA/λ² (independent of power) replaces --gain in the chain.
+      in.gain = exposure::aperture_regions(*dish, units::watts(1.0), f).gain;
+      cautions.push_back("--dish given: the dish gain " + sig(in.gain.dbi(), 4) + " dBi replaces --gain");
+    }
     const auto& table = limits::builtin_limit_table_ref(*standard);
     std::vector<TierOutcome> tiers;
     for (const auto& t : table.tiers) {
@@ -323,10 +328,6 @@ void add_distance(CLI::App& root, Commands& commands) {
         const auto lim = exposure::screening_density_limit(r.limit);
         r.aperture = exposure::aperture_compliance_distance(regions, r.chain.average_at_antenna, lim.s);
         r.distance_m = r.aperture->distance.value();
-        // The gain of the dish replaces --gain for EIRP and ERP.
-        r.chain.gain = regions.gain;
-        r.chain.eirp = power::eirp(r.chain.average_at_antenna, regions.gain);
-        r.chain.erp = power::erp(r.chain.average_at_antenna, regions.gain);
       } else {
         r.screening = exposure::screening_distance(r.chain.average_at_antenna, gain, *ground, r.limit, size);
         r.distance_m = r.screening->distance.value();
