@@ -13,21 +13,13 @@
 #include <sstream>
 
 #include "cli/run.hpp"
+#include "cli_support.hpp"
 
 using nlohmann::json;
 
 namespace {
 
-struct Result {
-  int code;
-  std::string out, err;
-};
-
-Result run_cli(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  const int code = standoff::cli::run(args, out, err);
-  return {code, out.str(), err.str()};
-}
+using standoff::test::run_cli;
 
 const std::string kDemoFile = std::string(STANDOFF_SOURCE_DIR) + "/docs/examples/demo-station.toml";
 

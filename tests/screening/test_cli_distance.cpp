@@ -11,21 +11,13 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/run.hpp"
+#include "cli_support.hpp"
 
 using namespace standoff;
 using Catch::Matchers::Contains;
 
 namespace {
-struct Result {
-  int code;
-  std::string out;
-  std::string err;
-};
-Result run(std::vector<std::string> args) {
-  std::ostringstream out, err;
-  const int code = cli::run(args, out, err);
-  return {code, out.str(), err.str()};
-}
+test::CliResult run(const std::vector<std::string>& args) { return test::run_cli(args); }
 }  // namespace
 
 TEST_CASE("acceptance: 144 MHz, 1500 W, 24 dBi, EPA ground", "[cli][distance]") {

@@ -9,22 +9,14 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/run.hpp"
+#include "cli_support.hpp"
 #include "station/station_toml.hpp"
 
 namespace fs = std::filesystem;
 
 namespace {
 
-struct Result {
-  int code;
-  std::string out, err;
-};
-
-Result run_cli(const std::vector<std::string>& args) {
-  std::ostringstream out, err;
-  const int code = standoff::cli::run(args, out, err);
-  return {code, out.str(), err.str()};
-}
+using standoff::test::run_cli;
 
 fs::path scratch_dir() {
   const fs::path d = fs::temp_directory_path() / ("standoff-station-cli-" + std::to_string(::getpid()));
