@@ -31,6 +31,7 @@ namespace {
 struct EvalOptions {
   std::string station_file;
   std::string out_dir;
+  const CLI::Option* out_option = nullptr;  // given as bare `--out`: write to reports/<station-name>/
   bool json = false;
   std::string standard;
   unsigned threads = 0;
@@ -172,22 +173,29 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.evaluation = std::move(ev);
   rec.cautions = report::all_cautions(rec);
 
-  // Write the report files first (all or nothing), then print.
-  if (!o.out_dir.empty()) report::write_report(rec, o.out_dir);
+  // Write the report files first (all or nothing), then print. A bare `--out` writes to the
+  // default directory reports/<station-name>/ (issue 7).
+  std::string out_dir = o.out_dir;
+  if (out_dir.empty() && o.out_option != nullptr && o.out_option->count() > 0)
+    out_dir = "reports/" + report::slug(st.name);
+  if (!out_dir.empty()) report::write_report(rec, out_dir);
   if (o.json) {
     out << report::to_json(rec).dump(2) << "\n";
   } else {
     report::TextOptions to;
     to.colour = (&out == &std::cout) && report::use_colour_for_fd(STDOUT_FILENO);
     report::write_text(rec, out, to);
-    if (!o.out_dir.empty()) out << "Report written to " << o.out_dir << "\n";
+    if (!out_dir.empty()) out << "Report written to " << out_dir << "\n";
   }
   const std::string verdict = report::overall_verdict(rec);
   return verdict == "within" ? kOk : kExceeds;
 }
 
 void common_options(CLI::App* sub, const std::shared_ptr<EvalOptions>& o) {
-  sub->add_option("--out", o->out_dir, "Write the report (HTML, Markdown, JSON, SVG) into this directory");
+  o->out_option = sub->add_option("--out", o->out_dir,
+                                  "Write the report (HTML, Markdown, JSON, SVG) into this directory; "
+                                  "`--out` alone writes to reports/<station-name>/")
+                       ->expected(0, 1);
   sub->add_flag("--json", o->json, "Print the evaluation record as JSON");
   sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
   sub->add_option("--threads", o->threads, "Worker threads for the grid (default: all cores)")

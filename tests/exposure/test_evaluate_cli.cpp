@@ -127,3 +127,21 @@ TEST_CASE("field: bad --at and unknown operation are exit 2", "[cli]") {
   CHECK(r.err.find("--operation") != std::string::npos);
   CHECK(run_cli({"demo", "--standard", "osha"}).code == 2);
 }
+
+TEST_CASE("a bare --out writes the report to reports/<station-name>/", "[cli]") {
+  // Issue 7: `--out DIR` defaults to reports/<station-name>/ — the demo station is "Demo station".
+  const std::filesystem::path here = std::filesystem::current_path();
+  const std::filesystem::path tmp =
+      std::filesystem::temp_directory_path() / ("standoff-bare-out-" + std::to_string(::getpid()));
+  std::filesystem::remove_all(tmp);
+  std::filesystem::create_directories(tmp);
+  std::filesystem::current_path(tmp);
+  const auto r = run_cli({"demo", "--out", "--threads", "2"});
+  std::filesystem::current_path(here);
+  INFO(r.err);
+  CHECK(r.code == 0);
+  CHECK(std::filesystem::exists(tmp / "reports" / "demo-station" / "report.html"));
+  CHECK(std::filesystem::exists(tmp / "reports" / "demo-station" / "report.json"));
+  CHECK(r.out.find("reports/demo-station") != std::string::npos);
+  std::filesystem::remove_all(tmp);
+}
