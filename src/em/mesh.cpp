@@ -6,6 +6,7 @@
 #include <sstream>
 
 #include "core/error.hpp"
+#include "core/segment_distance.hpp"
 
 namespace standoff::em {
 namespace {
@@ -26,34 +27,6 @@ std::string fmt_m(double v) {
   return s.str();
 }
 
-// Minimum distance between segments [p0,p1] and [q0,q1] (clamped closest points).
-double segment_distance(const Eigen::Vector3d& p0, const Eigen::Vector3d& p1, const Eigen::Vector3d& q0,
-                        const Eigen::Vector3d& q1) {
-  const Eigen::Vector3d d1 = p1 - p0, d2 = q1 - q0, r = p0 - q0;
-  const double a = d1.squaredNorm(), e = d2.squaredNorm(), f = d2.dot(r);
-  double s = 0.0, t = 0.0;
-  if (a <= 1e-300 && e <= 1e-300) return r.norm();
-  if (a <= 1e-300) {
-    t = std::clamp(f / e, 0.0, 1.0);
-  } else {
-    const double c = d1.dot(r);
-    if (e <= 1e-300) {
-      s = std::clamp(-c / a, 0.0, 1.0);
-    } else {
-      const double b = d1.dot(d2), denom = a * e - b * b;
-      s = denom > 1e-14 * a * e ? std::clamp((b * f - c * e) / denom, 0.0, 1.0) : 0.0;
-      t = (b * s + f) / e;
-      if (t < 0.0) {
-        t = 0.0;
-        s = std::clamp(-c / a, 0.0, 1.0);
-      } else if (t > 1.0) {
-        t = 1.0;
-        s = std::clamp((b - c) / a, 0.0, 1.0);
-      }
-    }
-  }
-  return ((p0 + s * d1) - (q0 + t * d2)).norm();
-}
 
 // Segment count that puts a node as close as possible to every fractional position in `pos`.
 int fit_nodes(int n, const std::vector<double>& pos) {
@@ -216,7 +189,7 @@ Mesh build_mesh(const Model& model, double max_segment_wavelengths, std::size_t 
             }
         continue;
       }
-      const double d = segment_distance(wi.a, wi.b, wj.a, wj.b);
+      const double d = geometry::segment_segment_distance(wi.a, wi.b, wj.a, wj.b);
       const bool parallel = std::abs(ti.dot(tj)) > 0.99;
       if (d < rsum) fail(pair, "overlapping or crossing wires without a junction (join them at a common end point)");
       if (parallel && d < 2.0 * rsum)

@@ -10,16 +10,16 @@
 
 #include <Eigen/Core>
 
+#include "core/segment_distance.hpp"
+
 namespace standoff::siting {
 
 using Vec2 = Eigen::Vector2d;
 using Vec3 = Eigen::Vector3d;
 
-// Shortest distance between a point and the segment ab (metres in, metres out).
-double point_segment_distance(const Vec3& p, const Vec3& a, const Vec3& b);
-
-// Shortest distance between the segments p1q1 and p2q2 (either may be a single point).
-double segment_segment_distance(const Vec3& p1, const Vec3& q1, const Vec3& p2, const Vec3& q2);
+// Point/segment and segment/segment distances (src/core/segment_distance.hpp).
+using geometry::point_segment_distance;
+using geometry::segment_segment_distance;
 
 // Where the plan segments ab and cd cross or touch (any common point), if they do.
 std::optional<Vec2> plan_crossing(const Vec2& a, const Vec2& b, const Vec2& c, const Vec2& d);
