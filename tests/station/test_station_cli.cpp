@@ -10,6 +10,7 @@
 
 #include "cli/run.hpp"
 #include "cli_support.hpp"
+#include "guide_example.hpp"
 #include "station/station_toml.hpp"
 
 namespace fs = std::filesystem;
@@ -75,21 +76,12 @@ TEST_CASE("a missing station file is exit 2", "[cli][station]") {
 }
 
 TEST_CASE("the user guide's complete example evaluates", "[cli][station]") {
-  std::ifstream in(std::string(STANDOFF_SOURCE_DIR) + "/docs/user-guide.md");
-  REQUIRE(in);
-  std::stringstream ss;
-  ss << in.rdbuf();
-  const std::string guide = ss.str();
-  const std::string begin = "<!-- complete example: begin -->\n```toml\n";
-  const auto b = guide.find(begin);
-  const auto e = guide.find("```\n<!-- complete example: end -->", b);
-  REQUIRE(b != std::string::npos);
-  REQUIRE(e != std::string::npos);
+  const std::string example = user_guide_example();
   const fs::path dir = scratch_dir();
   const fs::path file = dir / "example.toml";
   {
     std::ofstream f(file);
-    f << guide.substr(b + begin.size(), e - b - begin.size());
+    f << example;
   }
   const auto r = run_cli({"evaluate", file.string(), "--json", "--threads", "2"});
   INFO(r.err);

@@ -12,6 +12,7 @@
 
 #include "core/error.hpp"
 #include "station/station_toml.hpp"
+#include "guide_example.hpp"
 
 using standoff::InputError;
 using standoff::station::load_station;
@@ -193,17 +194,7 @@ TEST_CASE("the demo station and the user guide's complete example load", "[stati
   const auto demo = load_station(standoff::station::demo_station_text(), "demo-station.toml");
   CHECK(demo.operations.size() >= 5);
   // The user guide's complete example (between the markers) must load too.
-  std::ifstream in(std::string(STANDOFF_SOURCE_DIR) + "/docs/user-guide.md");
-  REQUIRE(in);
-  std::stringstream ss;
-  ss << in.rdbuf();
-  const std::string guide = ss.str();
-  const std::string begin = "<!-- complete example: begin -->\n```toml\n";
-  const auto b = guide.find(begin);
-  REQUIRE(b != std::string::npos);
-  const auto e = guide.find("```\n<!-- complete example: end -->", b);
-  REQUIRE(e != std::string::npos);
-  const std::string example = guide.substr(b + begin.size(), e - b - begin.size());
+  const std::string example = user_guide_example();
   const auto st = load_station(example, "user-guide example");
   CHECK(!st.operations.empty());
 }
