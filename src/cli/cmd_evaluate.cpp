@@ -2,7 +2,9 @@
 // (issue 5). The CLI reads the file, calls the core, builds the record and hands it to the writers.
 #include <unistd.h>
 
+#include <cctype>
 #include <cmath>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <iostream>
@@ -16,6 +18,7 @@
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
 #include "limits/limits_toml.hpp"
+#include "report/format.hpp"
 #include "report/record.hpp"
 #include "report/sha256.hpp"
 #include "report/writers.hpp"
@@ -33,9 +36,21 @@ struct EvalOptions {
   std::string out_dir;
   const CLI::Option* out_option = nullptr;  // given as bare `--out`: write to reports/<station-name>/
   bool json = false;
+  bool verbose = false;
+  std::string units;  // metric | imperial | both (default: both for fcc, metric otherwise)
   std::string standard;
   unsigned threads = 0;
 };
+
+report::UnitSystem units_option(const std::string& s, limits::Standard standard) {
+  std::string l;
+  for (char c : s) l += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  if (l.empty()) return standard == limits::Standard::fcc ? report::UnitSystem::both : report::UnitSystem::metric;
+  if (l == "metric") return report::UnitSystem::metric;
+  if (l == "imperial") return report::UnitSystem::imperial;
+  if (l == "both") return report::UnitSystem::both;
+  throw InputError(option_where("--units"), "unknown unit system \"" + s + "\": expected metric, imperial or both");
+}
 
 std::string read_file(const std::string& path) {
   std::ifstream in(path, std::ios::binary);
@@ -102,10 +117,15 @@ report::SiteMap site_map(const station::Station& st, const station::Built& built
     report::MapPowerLine ml;
     ml.name = l.name;
     for (const auto& p : l.path) ml.path.push_back({p.x.value(), p.y.value()});
-    std::string v = l.voltage ? fmt::format("{:.4g} kV", l.voltage->value.value() / 1000.0) : std::string("voltage unknown");
+    std::string v = l.voltage ? report::fmtx::voltage(l.voltage->value.value()) : std::string("voltage unknown");
     std::string h = l.height ? "conductor at " + metres(l.height->value()) : std::string("height unknown");
     ml.detail = v + ", " + h;
     m.power_lines.push_back(ml);
+  }
+  for (const auto& sp : st.installation.spans) {
+    m.spans.push_back({sp.name, siting::to_string(sp.kind),
+                       report::Point3{sp.from.x.value(), sp.from.y.value(), sp.from.z.value()},
+                       report::Point3{sp.to.x.value(), sp.to.y.value(), sp.to.z.value()}});
   }
   for (const auto& p : st.site.points) m.points.push_back({p.name, {p.at.x_m, p.at.y_m, p.at.z_m}, p.tier});
   return m;
@@ -148,6 +168,7 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   station::BuildOptions bo;
   bo.standard = standard_option(o.standard);
   const station::Built built = station::build(st, bo);
+  const report::UnitSystem units = units_option(o.units, built.standard);  // checked before the long run
 
   exposure::EvaluationOptions eo;
   eo.threads = o.threads;
@@ -162,6 +183,7 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.meta.input_sha256 = report::sha256_hex(text);
   rec.meta.standards.push_back(standard_used(*built.table));
   rec.meta.evaluated_by = st.evaluator;
+  rec.units = units;
   rec.map = site_map(st, built);
   if (!st.installation.empty())
     rec.lines = lines_section(siting::run_checks(st.installation, siting::builtin_clearance_tables()));
@@ -184,8 +206,10 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   } else {
     report::TextOptions to;
     to.colour = (&out == &std::cout) && report::use_colour_for_fd(STDOUT_FILENO);
+    to.verbose = o.verbose;
+    to.width = report::text_width(std::getenv("COLUMNS"));
     report::write_text(rec, out, to);
-    if (!out_dir.empty()) out << "Report written to " << out_dir << "\n";
+    if (!out_dir.empty()) out << "\nReport written to " << out_dir << "\n";
   }
   const std::string verdict = report::overall_verdict(rec);
   return verdict == "within" ? kOk : kExceeds;
@@ -197,6 +221,8 @@ void common_options(CLI::App* sub, const std::shared_ptr<EvalOptions>& o) {
                                   "`--out` alone writes to reports/<station-name>/")
                        ->expected(0, 1);
   sub->add_flag("--json", o->json, "Print the evaluation record as JSON");
+  sub->add_flag("--verbose", o->verbose, "Print every table and power-chain step (default: a summary of at most 100 columns)");
+  sub->add_option("--units", o->units, "Lengths in metric, imperial or both (default: both for fcc, metric otherwise)");
   sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
   sub->add_option("--threads", o->threads, "Worker threads for the grid (default: all cores)")
       ->check(CLI::Range(1u, 256u));
@@ -315,8 +341,9 @@ void add_evaluate(CLI::App& root, Commands& commands) {
                           // outcome: it exits 0 once evaluated. `evaluate` on the same file exits 1.
                           if (rc != kExceeds) return rc;
                           if (!o->json)
-                            out << "Demo: the findings above are intended (exit status 0); `standoff evaluate "
-                                << station::kDemoStationPath << "` exits 1 on the same result.\n";
+                            out << report::fmtx::wrap(std::string("Demo: these findings are intended, so it exits 0; "
+                                                                  "`standoff evaluate` on its file exits 1."),
+                                                      report::text_width(std::getenv("COLUMNS")), "", "");
                           return static_cast<int>(kOk);
                         }});
   }

@@ -28,6 +28,7 @@ std::string frequency(double hz) {
 
 std::string power(double watts) {
   if (!std::isfinite(watts)) return "not evaluated";
+  if (watts >= 10000.0) return trim_num(watts / 1000.0, watts >= 100000.0 ? 0 : 1) + " kW";
   if (watts >= 100.0) return fmt::format("{:.0f} W", watts);
   if (watts >= 1.0) return trim_num(watts, 2) + " W";
   return trim_num(watts * 1000.0, 2) + " mW";
@@ -49,8 +50,46 @@ std::string distance_down(const std::optional<double>& m) {
   return fmt::format("{:.1f} m", std::max(0.0, std::floor(*m * 10.0 * (1.0 + 1e-9)) / 10.0));
 }
 
+std::string grouped(long long v) {
+  std::string digits = std::to_string(v < 0 ? -v : v), out;
+  for (std::size_t k = 0; k < digits.size(); ++k) {
+    if (k > 0 && (digits.size() - k) % 3 == 0) out += ' ';
+    out += digits[k];
+  }
+  return (v < 0 ? "-" : "") + out;
+}
+
+std::string length_up(const std::optional<double>& m, UnitSystem u) {
+  if (!m || !std::isfinite(*m)) return "not evaluated";
+  const std::string ft = fmt::format("{:.1f} ft", std::ceil(std::max(0.0, *m) / 0.3048 * 10.0 * (1.0 - 1e-9)) / 10.0);
+  if (u == UnitSystem::imperial) return ft;
+  const std::string me = distance_up(m);
+  return u == UnitSystem::both ? me + " (" + ft + ")" : me;
+}
+
+std::string length_down(const std::optional<double>& m, UnitSystem u) {
+  if (!m || !std::isfinite(*m)) return "not evaluated";
+  const std::string ft = fmt::format("{:.1f} ft", std::max(0.0, std::floor(*m / 0.3048 * 10.0 * (1.0 + 1e-9)) / 10.0));
+  if (u == UnitSystem::imperial) return ft;
+  const std::string me = distance_down(m);
+  return u == UnitSystem::both ? me + " (" + ft + ")" : me;
+}
+
+std::string voltage(double volts) {
+  if (!std::isfinite(volts)) return "voltage unknown";
+  if (volts < 1000.0) return trim_num(volts, 0) + " V";
+  return trim_num(volts / 1000.0, 2) + " kV";
+}
+
+std::string permitted_power(const std::optional<double>& w) {
+  if (!w || !std::isfinite(*w)) return "not evaluated";
+  if (*w > 100000.0) return "more than 100 kW";
+  return power(round_power_down(*w));
+}
+
 std::string percent_up(double ratio) {
   if (!std::isfinite(ratio)) return "not evaluated";
+  if (ratio >= 10.0) return grouped(static_cast<long long>(std::ceil(ratio * 100.0 * (1.0 - 1e-9)))) + " %";
   return fmt::format("{:.1f} %", round_percent_up(ratio));
 }
 
@@ -107,6 +146,58 @@ std::string TextTable::render(const std::string& indent) const {
   }
   out += rule + "\n";
   for (const auto& row : rows) out += line(row);
+  return out;
+}
+
+std::string wrap(const std::string& text, std::size_t width, const std::string& first, const std::string& rest) {
+  std::string out, line = first;
+  std::size_t line_w = display_width(first);
+  bool empty_line = true;
+  std::size_t k = 0;
+  while (k < text.size()) {
+    while (k < text.size() && text[k] == ' ') ++k;
+    if (k >= text.size()) break;
+    std::size_t e = text.find(' ', k);
+    if (e == std::string::npos) e = text.size();
+    const std::string word = text.substr(k, e - k);
+    k = e;
+    const std::size_t ww = display_width(word);
+    if (!empty_line && line_w + 1 + ww > width) {
+      out += line + "\n";
+      line = rest;
+      line_w = display_width(rest);
+      empty_line = true;
+    }
+    if (!empty_line) {
+      line += ' ';
+      ++line_w;
+    }
+    line += word;
+    line_w += ww;
+    empty_line = false;
+  }
+  return out + line + "\n";
+}
+
+std::string TextTable::render_fit(std::size_t width, const std::string& indent) const {
+  const std::string full = render(indent);
+  std::size_t widest = 0, start = 0;
+  while (start < full.size()) {
+    const std::size_t e = full.find('\n', start);
+    widest = std::max(widest, display_width(full.substr(start, e - start)));
+    start = e == std::string::npos ? full.size() : e + 1;
+  }
+  if (widest <= width) return full;
+  std::string out;
+  for (const auto& row : rows) {
+    if (row.empty()) continue;
+    out += indent + row[0] + "\n";
+    std::string rest;
+    for (std::size_t c = 1; c < row.size() && c < header.size(); ++c) {
+      rest += (rest.empty() ? "" : "; ") + header[c] + ": " + row[c];
+    }
+    if (!rest.empty()) out += wrap(rest, width, indent + "    ", indent + "    ");
+  }
   return out;
 }
 

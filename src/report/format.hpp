@@ -16,7 +16,19 @@ std::string power(double watts);                          // 3 significant figur
 std::string power_down(const std::optional<double>& w);   // rounded DOWN, or "not evaluated"
 std::string distance_up(const std::optional<double>& m);  // rounded UP to 0.1 m, or "not evaluated"
 std::string distance_down(const std::optional<double>& m);  // rounded DOWN (an actual clearance)
-std::string percent_up(double ratio);                     // "212.4 %" rounded UP to 0.1 %
+std::string percent_up(double ratio);                     // "212.4 %" rounded UP to 0.1 %; "23 014 %" from 1000 %
+// Lengths in the record's unit system: "3.1 m", "10.2 ft" or "3.1 m (10.2 ft)"; up or down.
+std::string length_up(const std::optional<double>& m, UnitSystem u);
+std::string length_down(const std::optional<double>& m, UnitSystem u);
+// Voltage for people: "240 V" below 1 kV, "7.2 kV" above.
+std::string voltage(double volts);
+// Permitted power for people: rounded DOWN; kW from 10 kW; "more than 100 kW" beyond (the
+// exposure limit is then not what limits the power: see kAbsurdPowerNote).
+std::string permitted_power(const std::optional<double>& w);
+inline constexpr const char* kAbsurdPowerNote =
+    "more than 100 kW: exposure does not limit this power; the licence and the equipment do.";
+// Integer with a thin space between thousands ("23 014").
+std::string grouped(long long v);
 std::string where(const exposure::SitePoint& p);         // "(12.0, -4.5, 1.0) m"
 std::string verdict_word(const std::string& verdict);     // "WITHIN LIMITS", "EXCEEDS", "NOT EVALUATED"
 std::string tiers(const exposure::TierDistances& d);     // "C 3.1 m / U 7.0 m"
@@ -29,6 +41,13 @@ struct TextTable {
   std::vector<std::string> header;
   std::vector<std::vector<std::string>> rows;
   std::string render(const std::string& indent = "") const;
+  // As render() when every line fits `width` columns; otherwise each row is folded: its first
+  // cell on a line, then "header: value" pairs wrapped to the width.
+  std::string render_fit(std::size_t width, const std::string& indent = "") const;
 };
+
+// Words of `text` wrapped to `width` columns: the first line starts with `first`, the others with
+// `rest`. A word longer than a line is put on a line of its own (never cut).
+std::string wrap(const std::string& text, std::size_t width, const std::string& first, const std::string& rest);
 
 }  // namespace standoff::report::fmtx

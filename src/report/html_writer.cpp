@@ -108,7 +108,7 @@ std::string to_html(const Record& r) {
     rows.push_back({esc(op.name), esc(fmtx::frequency(op.frequency_hz)), esc(fmtx::power(op.pep_w)),
                     esc(fmtx::power(op.average_power_w)), e ? esc(fmtx::percent_up(op.worst.ratio)) : "not evaluated",
                     e ? esc(fmtx::where(op.worst.at) + ", " + op.worst.zone + " (" + tier_name(op.worst.tier) + ")") : "—",
-                    esc(fmtx::power_down(op.permitted_pep_w)), badge(exposure::to_string(op.verdict))});
+                    esc(fmtx::permitted_power(op.permitted_pep_w)), badge(exposure::to_string(op.verdict))});
   }
   h += table({"Operation", "Frequency", "PEP", "Average power at antenna", "Worst exposure (% of limit)",
               "Where, zone (tier)", "Permitted PEP", "Verdict"},
@@ -157,7 +157,7 @@ std::string to_html(const Record& r) {
     } else {
       rows.push_back({"Worst exposure", "not evaluated — measure or use another method"});
     }
-    rows.push_back({"Permitted PEP", esc(fmtx::power_down(op.permitted_pep_w))});
+    rows.push_back({"Permitted PEP", esc(fmtx::permitted_power(op.permitted_pep_w))});
     rows.push_back({"Screening distance (far-field model)", esc(fmtx::tiers(op.screening_distance))});
     rows.push_back({"Detailed distance (worst direction, body height)", esc(fmtx::tiers(op.detailed_distance))});
     if (op.not_evaluated_count > 0) {

@@ -1,6 +1,7 @@
 // JSON form of the evaluation record; the schema is documented in docs/report-schema.md.
 #include <cmath>
 
+#include "report/findings.hpp"
 #include "report/writers.hpp"
 
 namespace standoff::report {
@@ -108,7 +109,16 @@ json to_json(const Record& r) {
   j["evaluated_by"] = r.meta.evaluated_by;
   j["signature"] = r.meta.signature;
   j["verdict"] = overall_verdict(r);
-  j["exposure_verdict"] = exposure::to_string(ev.verdict);
+  j["exposure_verdict"] = exposure_verdict(r);
+  j["installation_verdict"] = installation_verdict(r);
+  j["installation_failures"] = installation_failures(r);
+  j["installation_checks"] = installation_checks(r);
+  j["headline"] = headline_sentence(r);
+  json fj = json::array();
+  for (const auto& f : findings(r)) {
+    fj.push_back({{"subject", f.subject}, {"kind", f.exposure ? "exposure" : "installation"}, {"sentence", f.sentence}});
+  }
+  j["findings"] = fj;
   j["body_rule"] = ev.body_rule;
   j["grid_spacing_m"] = ev.grid_spacing_m;
   json ops = json::array();

@@ -84,7 +84,7 @@ std::string to_markdown(const Record& r) {
     rows.push_back({op.name, fmtx::frequency(op.frequency_hz), fmtx::power(op.pep_w), fmtx::power(op.average_power_w),
                     e ? fmtx::percent_up(op.worst.ratio) : "not evaluated",
                     e ? fmtx::where(op.worst.at) + ", " + op.worst.zone + " (" + tier_name(op.worst.tier) + ")" : "—",
-                    fmtx::power_down(op.permitted_pep_w), "**" + fmtx::verdict_word(exposure::to_string(op.verdict)) + "**"});
+                    fmtx::permitted_power(op.permitted_pep_w), "**" + fmtx::verdict_word(exposure::to_string(op.verdict)) + "**"});
   }
   md += table({"Operation", "Frequency", "PEP", "Average power at antenna", "Worst exposure (% of limit)", "Where, zone (tier)",
                "Permitted PEP", "Verdict"},
@@ -129,7 +129,7 @@ std::string to_markdown(const Record& r) {
     } else {
       rows.push_back({"Worst exposure", "not evaluated — measure or use another method"});
     }
-    rows.push_back({"Permitted PEP", fmtx::power_down(op.permitted_pep_w)});
+    rows.push_back({"Permitted PEP", fmtx::permitted_power(op.permitted_pep_w)});
     rows.push_back({"Screening distance (far-field model)", fmtx::tiers(op.screening_distance)});
     rows.push_back({"Detailed distance (worst direction, body height)", fmtx::tiers(op.detailed_distance)});
     if (op.not_evaluated_count > 0) {

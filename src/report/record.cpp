@@ -22,32 +22,105 @@ std::string overall_verdict(const Record& r) {
   return exposure::to_string(r.evaluation.verdict);
 }
 
+std::string exposure_verdict(const Record& r) { return exposure::to_string(r.evaluation.verdict); }
+
+std::string installation_verdict(const Record& r) {
+  if (!r.lines || r.lines->checks.empty()) return "not checked";
+  return r.lines->all_pass() ? "pass" : "fail";
+}
+
+std::size_t installation_failures(const Record& r) {
+  if (!r.lines) return 0;
+  return static_cast<std::size_t>(
+      std::count_if(r.lines->checks.begin(), r.lines->checks.end(), [](const LineCheck& c) { return !c.pass; }));
+}
+
+std::size_t installation_checks(const Record& r) { return r.lines ? r.lines->checks.size() : 0; }
+
+std::string exposure_headline(const Record& r) {
+  const std::string v = exposure_verdict(r);
+  return std::string("RF exposure: ") + (v == "within" ? "WITHIN LIMITS" : v == "exceeds" ? "EXCEEDS" : "NOT EVALUATED");
+}
+
+std::string installation_headline(const Record& r) {
+  const std::string v = installation_verdict(r);
+  const std::size_t n = installation_checks(r);
+  const std::string checks = std::to_string(n) + (n == 1 ? " check" : " checks");
+  if (v == "fail") return "Installation: FAIL (" + std::to_string(installation_failures(r)) + " of " + checks + ")";
+  if (v == "pass") return "Installation: PASS (" + checks + ")";
+  return "Installation: NOT CHECKED (no power lines or supports described)";
+}
+
+namespace {
+
+// Cautions of the other modules whose matter our own standard set already says (merged into the
+// power-line and codes cautions below); each topic is said once.
+bool said_by_standard_set(const std::string& c) {
+  for (const char* key : {"Call the utility before any work near overhead lines",
+                          "Assume every overhead line is energised and uninsulated",
+                          "Never raise, lower or climb a mast, tower or antenna near a power line",
+                          "These checks are a planning aid, not an approval"}) {
+    if (c.find(key) != std::string::npos) return true;
+  }
+  return false;
+}
+
+// A caution about physical work (wires, supports, lines) ranks above the model's caveats.
+bool about_physical_harm(const std::string& c) {
+  for (const char* key : {"sag", "wire", "mast", "tower", "climb", "ladder", "power line", "overhead", "burn", "shock"}) {
+    if (c.find(key) != std::string::npos) return true;
+  }
+  return false;
+}
+
+}  // namespace
+
 std::vector<std::string> all_cautions(const Record& r) {
-  // Our own wording; each is common practice (no source) except where a source is named.
-  std::vector<std::string> out = {
-      "Never touch an antenna, its feed point or an open-wire line while a transmitter is keyed, "
-      "even at low power: contact with a conductor carrying RF can cause deep RF burns that this "
-      "evaluation of unperturbed fields does not cover.",
-      "Overhead power lines kill. Treat every line as energised and uninsulated; call the utility "
-      "before working near one; never raise a mast, tower, ladder, throw line or wire where it "
-      "could reach a line standing, swinging or falling.",
-      "Climbing towers, trees and roofs and raising masts risk falls: use fall protection, work with "
-      "a helper, and keep people out of the fall zone while raising or lowering.",
-      "Bond and ground masts, towers and feed-line shields for lightning and static per the "
-      "electrical code (NFPA 70 Art. 810 in the US); disconnect and ground antennas when not in use.",
-      "This record supports, and does not replace, the rules that apply: local codes, the "
-      "regulator, the electric utility and licensed professional practice govern.",
-      "Exposure results assume the station operates as described (power, mode, on-air time, feed "
-      "line, antenna position); re-evaluate after any change.",
+  // Our own wording; each is common practice (no source) except where a source is named. In the
+  // order of harm: electrocution, RF burns, falls, then other physical hazards, lightning, the
+  // model's limits, and finally who governs.
+  const std::vector<std::string> first = {
+      "Overhead power lines kill. Treat every line as energised and uninsulated, service drops and lines "
+      "that look dead included. Call the utility before any work near one: have them confirm the voltage "
+      "and height, and cover or de-energise the line where needed. Never raise, lower or climb a mast, "
+      "tower, ladder, throw line or wire where anything could come within the approach distance, standing, "
+      "swinging, slipping or falling.",
+      "Never touch an antenna, its feed point or an open-wire line while a transmitter is keyed, even at low "
+      "power: contact with a conductor carrying RF can cause deep RF burns that this evaluation of "
+      "unperturbed fields does not cover.",
+      "Climbing towers, trees and roofs and raising masts risk falls: use fall protection, work with a helper, "
+      "and keep people out of the fall zone while raising or lowering.",
   };
+  const std::string lightning =
+      "Bond and ground masts, towers and feed-line shields for lightning and static per the electrical code "
+      "(NFPA 70 Art. 810 in the US); disconnect and ground antennas when not in use.";
+  const std::vector<std::string> last = {
+      "Exposure results assume the station operates as described (power, mode, on-air time, feed line, "
+      "antenna position); re-evaluate after any change.",
+      "This record is a planning aid and supports, but does not replace, the rules that apply: local codes, "
+      "the regulator, the electric utility and licensed professional practice govern wherever they ask for "
+      "more.",
+  };
+  std::vector<std::string> physical, caveats;
+  std::vector<std::string> seen(first.begin(), first.end());
+  seen.push_back(lightning);
+  seen.insert(seen.end(), last.begin(), last.end());
   auto add = [&](const std::string& c) {
-    if (!c.empty() && std::find(out.begin(), out.end(), c) == out.end()) out.push_back(c);
+    if (c.empty() || said_by_standard_set(c)) return;
+    if (std::find(seen.begin(), seen.end(), c) != seen.end()) return;
+    seen.push_back(c);
+    (about_physical_harm(c) ? physical : caveats).push_back(c);
   };
   for (const auto& c : r.cautions) add(c);
   for (const auto& c : r.evaluation.cautions) add(c);
   if (r.lines) {
     for (const auto& c : r.lines->cautions) add(c);
   }
+  std::vector<std::string> out(first);
+  out.insert(out.end(), physical.begin(), physical.end());
+  out.push_back(lightning);
+  out.insert(out.end(), caveats.begin(), caveats.end());
+  out.insert(out.end(), last.begin(), last.end());
   return out;
 }
 

@@ -82,6 +82,14 @@ struct MapPowerLine {
   std::string detail;  // voltage and conductor height as stated (or "unknown")
 };
 
+// A wire span drawn on the map (antenna wire, feed line or halyard), ends in the site frame.
+struct MapSpan {
+  std::string name;
+  std::string kind;  // "antenna", "feed_line", "halyard"
+  Point3 from;
+  Point3 to;
+};
+
 struct MapPoint {
   std::string name;
   Point3 at;
@@ -95,6 +103,7 @@ struct SiteMap {
   std::vector<MapAntenna> antennas;
   std::vector<MapSupport> supports;
   std::vector<MapPowerLine> power_lines;
+  std::vector<MapSpan> spans;
   std::vector<MapPoint> points;
 };
 
@@ -122,6 +131,17 @@ struct Reference {
   std::string source;  // the published document
 };
 
+// A remedy computed elsewhere (e.g. by the installation checks) for one finding: `subject` is the
+// operation, support or span the remedy is for; the finding sentence about that subject ends
+// with `text`. A remedy whose subject matches no finding is said as a sentence of its own.
+struct Remedy {
+  std::string subject;
+  std::string text;
+};
+
+// How numbers with a length are shown: metres, feet, or metres with feet beside them.
+enum class UnitSystem { metric, imperial, both };
+
 struct Record {
   Metadata meta;
   exposure::StationEvaluation evaluation;
@@ -130,6 +150,8 @@ struct Record {
   std::vector<std::string> assumptions;
   std::vector<Reference> references;
   std::vector<std::string> cautions;
+  std::vector<Remedy> remedies;
+  UnitSystem units = UnitSystem::both;
 };
 
 // ---- Helpers shared by the writers ----
@@ -140,6 +162,18 @@ std::string tier_name(limits::Tier t);
 // The station's overall verdict, combining the exposure verdict with the power-line checks:
 // "exceeds" if any ratio > 1 or any clearance check fails, otherwise the exposure verdict.
 std::string overall_verdict(const Record& r);
+
+// The two verdicts of the record, kept apart everywhere they are shown:
+// exposure: "within", "exceeds" or "not evaluated" (the station's exposure verdict);
+// installation: "pass", "fail" (any clearance check fails) or "not checked" (no power lines or
+// supports described). overall_verdict() combines them.
+std::string exposure_verdict(const Record& r);
+std::string installation_verdict(const Record& r);
+std::size_t installation_failures(const Record& r);
+std::size_t installation_checks(const Record& r);
+// "RF exposure: EXCEEDS" and "Installation: FAIL (2 of 46 checks)" / "Installation: PASS (46 checks)".
+std::string exposure_headline(const Record& r);
+std::string installation_headline(const Record& r);
 
 // The cautions printed in every record: our own standard set (RF burns, power lines, climbing and
 // falls, lightning and grounding, local codes/utility/licensed practice) followed by any cautions

@@ -2,11 +2,13 @@
 // when the caller says so (use_colour: a terminal and NO_COLOR unset).
 #include <unistd.h>
 
+#include <algorithm>
 #include <cstdlib>
 #include <ostream>
 
 #include <fmt/format.h>
 
+#include "report/findings.hpp"
 #include "report/format.hpp"
 #include "report/writers.hpp"
 
@@ -15,6 +17,14 @@ namespace standoff::report {
 bool use_colour(bool is_terminal, const char* no_color_env) {
   const bool no_color = no_color_env != nullptr && no_color_env[0] != '\0';
   return is_terminal && !no_color;
+}
+
+std::size_t text_width(const char* columns_env) {
+  if (columns_env == nullptr || columns_env[0] == '\0') return 100;
+  char* end = nullptr;
+  const long v = std::strtol(columns_env, &end, 10);
+  if (end == nullptr || *end != '\0' || v < 40 || v > 100) return 100;
+  return static_cast<std::size_t>(v);
 }
 
 bool use_colour_for_fd(int fd) { return use_colour(::isatty(fd) == 1, std::getenv("NO_COLOR")); }
@@ -30,18 +40,130 @@ std::string paint(const std::string& text, const std::string& verdict, bool colo
   return code + text + "\x1b[0m";
 }
 
+std::string paint_headline(const std::string& headline, const std::string& verdict, bool colour) {
+  const auto colon = headline.find(": ");
+  if (colon == std::string::npos) return headline;
+  return headline.substr(0, colon + 2) + paint(headline.substr(colon + 2), verdict, colour);
+}
+
+// The summary: who and what, the two verdicts, one sentence per finding, one line per operation,
+// the installation checks by rule, the gravest cautions and the signature line.
+void write_summary(const Record& r, std::ostream& out, const TextOptions& options) {
+  const auto& ev = r.evaluation;
+  const std::size_t w = options.width;
+  out << fmtx::wrap("standoff evaluation record — " + r.meta.station_name + " · " + r.meta.date + " · standoff " +
+                        r.meta.tool_version,
+                    w, "", "  ");
+  for (const auto& s : r.meta.standards) {
+    out << fmtx::wrap("limits " + s.document + ", " + s.table + " (" + std::to_string(s.year) + ") [" + s.confidence +
+                          "]; input " + r.meta.input_file,
+                      w, "", "  ");
+  }
+  out << paint_headline(exposure_headline(r), exposure_verdict(r), options.colour) << "    "
+      << paint_headline(installation_headline(r), installation_verdict(r), options.colour) << "\n";
+  // The findings say what the headline sentence says, one by one; without findings, the headline.
+  const auto fs = findings(r);
+  if (fs.empty()) out << fmtx::wrap(headline_sentence(r), w, "", "");
+  out << "\n";
+  if (!fs.empty()) {
+    out << "Findings and remedies\n";
+    for (std::size_t k = 0; k < fs.size(); ++k) {
+      const std::string num = std::to_string(k + 1) + ". ";
+      out << fmtx::wrap(fs[k].sentence, w, "  " + num, std::string(2 + num.size(), ' '));
+    }
+    out << "\n";
+  }
+
+  fmtx::TextTable ops;
+  ops.header = {"operation", "worst", "where (tier)", "permitted PEP", "verdict"};
+  bool absurd = false;
+  for (const auto& op : ev.operations) {
+    const bool e = op.evaluated_anywhere;
+    const std::string v = exposure::to_string(op.verdict);
+    absurd |= op.permitted_pep_w && *op.permitted_pep_w > 100000.0;
+    ops.rows.push_back({op.name, e ? fmtx::percent_up(op.worst.ratio) : "not evaluated",
+                        e ? op.worst.zone + (op.worst.tier == limits::Tier::controlled ? " (C)" : " (U)") : "—",
+                        fmtx::permitted_power(op.permitted_pep_w), paint(fmtx::verdict_word(v), v, options.colour)});
+  }
+  for (const auto& g : ev.groups) {
+    const std::string v = exposure::to_string(g.verdict);
+    const bool e = g.evaluated_anywhere;
+    ops.rows.push_back({"group " + g.name + " (sum)", e ? fmtx::percent_up(g.worst.ratio) : "not evaluated",
+                        e ? g.worst.zone + (g.worst.tier == limits::Tier::controlled ? " (C)" : " (U)") : "—", "",
+                        paint(fmtx::verdict_word(v), v, options.colour)});
+  }
+  out << fmtx::wrap("Exposure, worst place per operation (% of the limit; C = controlled, U = uncontrolled tier)", w, "", "");
+  out << ops.render_fit(w, "  ");
+  if (absurd) out << fmtx::wrap(fmtx::kAbsurdPowerNote, w, "  ", "  ");
+  out << "\n";
+
+  if (r.lines && !r.lines->checks.empty()) {
+    // Per rule: failures named, passes counted.
+    std::vector<std::string> rules;
+    for (const auto& c : r.lines->checks) {
+      if (std::find(rules.begin(), rules.end(), c.rule) == rules.end()) rules.push_back(c.rule);
+    }
+    out << "Installation checks near power lines\n";
+    std::string passes;
+    for (const auto& rule : rules) {
+      std::size_t pass = 0, fail = 0;
+      std::vector<std::pair<std::string, std::string>> failed;  // subject, lines
+      for (const auto& c : r.lines->checks) {
+        if (c.rule != rule) continue;
+        if (c.pass) {
+          ++pass;
+          continue;
+        }
+        ++fail;
+        auto it = std::find_if(failed.begin(), failed.end(), [&](const auto& f) { return f.first == c.subject; });
+        if (it == failed.end()) {
+          failed.push_back({c.subject, ""});
+          it = failed.end() - 1;
+        }
+        if (!c.line.empty()) it->second += (it->second.empty() ? " vs " : ", ") + c.line;
+      }
+      if (fail > 0) {
+        std::string names;
+        for (const auto& f : failed) names += (names.empty() ? "" : "; ") + f.first + f.second;
+        out << fmtx::wrap(paint("FAIL", "fail", options.colour) + " " + rule + " (" + std::to_string(fail) + "): " + names,
+                          w, "  ", "    ");
+      }
+      if (pass > 0) passes += (passes.empty() ? "" : ", ") + rule + " " + std::to_string(pass);
+    }
+    if (!passes.empty()) out << fmtx::wrap(paint("PASS", "pass", options.colour) + " " + passes, w, "  ", "    ");
+    out << "\n";
+  }
+
+  const auto cautions = all_cautions(r);
+  const std::size_t shown = std::min<std::size_t>(cautions.size(), 1);
+  out << fmtx::wrap("Cautions (the gravest; all " + std::to_string(cautions.size()) + " in the report and with --verbose)",
+                    w, "", "");
+  for (std::size_t k = 0; k < shown; ++k) out << fmtx::wrap(cautions[k], w, "  ! ", "    ");
+}
+
 }  // namespace
 
 void write_text(const Record& r, std::ostream& out, const TextOptions& options) {
+  if (!options.verbose) {
+    write_summary(r, out, options);
+    return;
+  }
   const auto& ev = r.evaluation;
-  const std::string verdict = overall_verdict(r);
   out << "standoff evaluation record — " << r.meta.station_name << "\n";
   out << "  date " << r.meta.date << " · standoff " << r.meta.tool_version << "\n";
   out << "  input " << r.meta.input_file << " (SHA-256 " << r.meta.input_sha256 << ")\n";
   for (const auto& s : r.meta.standards) {
     out << "  limits " << s.document << ", " << s.table << " (" << s.year << ") [" << s.confidence << "]\n";
   }
-  out << "  verdict: " << paint(fmtx::verdict_word(verdict), verdict, options.colour) << "\n\n";
+  out << "  " << paint_headline(exposure_headline(r), exposure_verdict(r), options.colour) << "\n";
+  out << "  " << paint_headline(installation_headline(r), installation_verdict(r), options.colour) << "\n";
+  out << "  " << headline_sentence(r) << "\n\n";
+  const auto fs = findings(r);
+  if (!fs.empty()) {
+    out << "Findings and remedies\n";
+    for (std::size_t k = 0; k < fs.size(); ++k) out << "  " << k + 1 << ". " << fs[k].sentence << "\n";
+    out << "\n";
+  }
 
   fmtx::TextTable ops;
   ops.header = {"operation", "frequency", "PEP", "avg at antenna", "worst", "zone (tier)", "permitted PEP", "verdict"};
@@ -53,7 +175,7 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
     ops.rows.push_back({op.name, fmtx::frequency(op.frequency_hz), fmtx::power(op.pep_w),
                         fmtx::power(op.average_power_w), e ? fmtx::percent_up(op.worst.ratio) : "not evaluated",
                         e ? op.worst.zone + " (" + tier_name(op.worst.tier) + ")" : "—",
-                        fmtx::power_down(op.permitted_pep_w), paint(fmtx::verdict_word(v), v, options.colour)});
+                        fmtx::permitted_power(op.permitted_pep_w), paint(fmtx::verdict_word(v), v, options.colour)});
     dist.rows.push_back({op.name, e ? fmtx::where(op.worst.at) : "—", fmtx::distance_up(op.screening_distance.controlled_m),
                          fmtx::distance_up(op.screening_distance.uncontrolled_m),
                          fmtx::distance_up(op.detailed_distance.controlled_m),

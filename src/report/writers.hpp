@@ -19,9 +19,14 @@ namespace standoff::report {
 
 // ---- terminal text ----
 struct TextOptions {
-  bool colour = false;  // ANSI colour for verdicts (decide with use_colour())
+  bool colour = false;     // ANSI colour for verdicts (decide with use_colour())
+  bool verbose = false;    // every table and power-chain step; otherwise a summary (≤ 100 columns)
+  std::size_t width = 100; // the summary wraps or folds to this many columns (see text_width())
 };
 void write_text(const Record& r, std::ostream& out, const TextOptions& options = {});
+
+// Columns for the terminal summary: COLUMNS when it is a number from 40 to 100, otherwise 100.
+std::size_t text_width(const char* columns_env);
 
 // Colour only when writing to a terminal and NO_COLOR is unset or empty (no-color.org convention).
 bool use_colour(bool is_terminal, const char* no_color_env);
