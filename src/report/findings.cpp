@@ -165,6 +165,23 @@ std::vector<Finding> findings(const Record& r) {
   return out;
 }
 
+std::vector<RuleSummary> rule_summaries(const Record& r) {
+  std::vector<RuleSummary> out;
+  if (!r.lines) return out;
+  for (const auto& c : r.lines->checks) {
+    auto it = std::find_if(out.begin(), out.end(), [&](const RuleSummary& s) { return s.rule == c.rule; });
+    if (it == out.end()) {
+      out.push_back({c.rule, c.source, 0, 0});
+      it = out.end() - 1;
+    } else if (it->source.find(c.source) == std::string::npos) {
+      it->source += "; " + c.source;  // a rule whose checks cite different sources lists each once
+    }
+    ++(c.pass ? it->passed : it->failed);
+  }
+  std::stable_partition(out.begin(), out.end(), [](const RuleSummary& s) { return s.failed > 0; });
+  return out;
+}
+
 std::string headline_sentence(const Record& r) {
   const auto& ev = r.evaluation;
   std::vector<std::string> parts;

@@ -24,6 +24,16 @@ struct Finding {
 // everything is within the limits and every check passes.
 std::vector<Finding> findings(const Record& r);
 
+// The installation checks per rule, in the order the rules first appear: its source (cited once,
+// here, not per row), how many checks passed and failed. Rules with a failure come first.
+struct RuleSummary {
+  std::string rule;
+  std::string source;
+  std::size_t passed = 0;
+  std::size_t failed = 0;
+};
+std::vector<RuleSummary> rule_summaries(const Record& r);
+
 // One sentence saying what exceeds or fails, where and by how much (or that nothing does).
 std::string headline_sentence(const Record& r);
 

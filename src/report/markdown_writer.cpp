@@ -1,6 +1,7 @@
 // Markdown form of the evaluation record; drawings are referenced as the SVG files beside it.
 #include <fmt/format.h>
 
+#include "report/findings.hpp"
 #include "report/format.hpp"
 #include "report/writers.hpp"
 
@@ -60,6 +61,14 @@ std::string to_markdown(const Record& r) {
   const auto& ev = r.evaluation;
   const std::string verdict = overall_verdict(r);
   std::string md = "# RF exposure and installation-safety evaluation — " + text(r.meta.station_name) + "\n\n";
+  md += "**" + exposure_headline(r) + "** · **" + installation_headline(r) + "**\n\n";
+  md += text(headline_sentence(r)) + "\n\n";
+  const auto fs = findings(r);
+  if (!fs.empty()) {
+    md += "## Findings and remedies\n\n";
+    for (std::size_t k = 0; k < fs.size(); ++k) md += std::to_string(k + 1) + ". " + text(fs[k].sentence) + "\n";
+    md += "\n";
+  }
 
   std::vector<std::vector<std::string>> title = {
       {"Station", r.meta.station_name},
@@ -72,7 +81,9 @@ std::string to_markdown(const Record& r) {
     title.push_back({"Limits (" + s.id + ")", fmt::format("{}, {} ({}); table file {}; confidence: {}", s.document,
                                                           s.table, s.year, s.file, s.confidence)});
   }
-  title.push_back({"Overall verdict", "**" + fmtx::verdict_word(verdict) + "**"});
+  title.push_back({"RF exposure", "**" + fmtx::verdict_word(exposure_verdict(r)) + "**"});
+  title.push_back({"Installation", "**" + installation_headline(r).substr(std::string("Installation: ").size()) + "**"});
+  title.push_back({"Combined verdict", "**" + fmtx::verdict_word(verdict) + "**"});
   title.push_back({"Evaluated by", r.meta.evaluated_by.empty() ? "______________________________" : r.meta.evaluated_by});
   title.push_back({"Signature", r.meta.signature.empty() ? "______________________________" : r.meta.signature});
   md += table({"Item", "Value"}, title);

@@ -66,7 +66,9 @@ bool said_by_standard_set(const std::string& c) {
 }
 
 // A caution about physical work (wires, supports, lines) ranks above the model's caveats.
-bool about_physical_harm(const std::string& c) {
+bool about_physical_harm(const std::string& text) {
+  std::string c;
+  for (const char ch : text) c += static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
   for (const char* key : {"sag", "wire", "mast", "tower", "climb", "ladder", "power line", "overhead", "burn", "shock"}) {
     if (c.find(key) != std::string::npos) return true;
   }

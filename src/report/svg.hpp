@@ -3,7 +3,9 @@
 // of the record: the site map and the exposure-ratio-versus-distance chart.
 #pragma once
 
+#include <optional>
 #include <string>
+#include <vector>
 #include <string_view>
 
 #include "report/record.hpp"
@@ -32,13 +34,48 @@ inline constexpr const char* grey = "#999999";
 inline const char* tier_colour(limits::Tier t) { return t == limits::Tier::controlled ? blue : vermillion; }
 }  // namespace palette
 
-// The site map as a standalone SVG document (with XML declaration when `standalone`), or as an
-// element to inline in HTML. The root <svg> has id="site-map".
-std::string site_map_svg(const Record& r, bool standalone);
+// The site map as a standalone SVG document (with XML declaration and a title block when
+// `standalone`), or as an element to inline in HTML. The root <svg> has id="site-map" (or
+// "site-map-overview" when `compact`: no legend or keys, for the first page).
+std::string site_map_svg(const Record& r, bool standalone, bool compact = false);
+
+// Distances marked on an operation's chart (horizontal, from the antenna), absent when unknown.
+struct ChartMarks {
+  std::optional<double> property_line_m;    // nearest point of the property boundary
+  std::optional<double> neighbour_m;        // nearest uncontrolled point of interest
+  std::string neighbour_name;
+  exposure::TierDistances keep_away;        // the detailed (else screening) keep-away distance per tier
+  UnitSystem units = UnitSystem::both;      // a feet axis unless metric
+};
+ChartMarks chart_marks(const Record& r, const exposure::OperationResult& op);
 
 // Exposure ratio versus distance for one operation, log scale in percent of the limit, one line
-// per tier, reference lines at 100 % and 50 %. The root <svg> has id="chart-<slug of operation>".
-std::string ratio_chart_svg(const exposure::OperationResult& op, bool standalone);
+// per tier, reference lines at 100 % and 50 %, the marks above, a metre axis (and a feet axis
+// along the top). The root <svg> has id="chart-<slug of operation>".
+std::string ratio_chart_svg(const exposure::OperationResult& op, bool standalone, const ChartMarks& marks = {});
+
+// Simple label placement without overlap: each label takes the first of its candidate positions
+// whose box (estimated from the character count) meets no box placed before. Exposed for tests.
+struct LabelBox {
+  double x0 = 0, y0 = 0, x1 = 0, y1 = 0;
+  bool overlaps(const LabelBox& o) const { return x0 < o.x1 && o.x0 < x1 && y0 < o.y1 && o.y0 < y1; }
+};
+class LabelPlacer {
+ public:
+  // Returns the index of the candidate taken (the first one if all overlap) and records its box.
+  // Candidates are (x, y, anchor) with anchor "start", "middle" or "end"; y is the text baseline.
+  struct Candidate {
+    double x, y;
+    const char* anchor;
+  };
+  std::size_t place(const std::string& text, double font_px, const std::vector<Candidate>& candidates);
+  void block(const LabelBox& b) { boxes_.push_back(b); }
+  const std::vector<LabelBox>& boxes() const { return boxes_; }
+  static LabelBox box_of(const std::string& text, double font_px, const Candidate& c);
+
+ private:
+  std::vector<LabelBox> boxes_;
+};
 
 // Contour polylines drawn on the map: the worst case over operations and group sums (sources in
 // a group add up; operations in no common group do not transmit together), per zone grid, tier

@@ -59,7 +59,8 @@ void write_summary(const Record& r, std::ostream& out, const TextOptions& option
                           "]; input " + r.meta.input_file,
                       w, "", "  ");
   }
-  out << paint_headline(exposure_headline(r), exposure_verdict(r), options.colour) << "    "
+  const bool one_line = exposure_headline(r).size() + 4 + installation_headline(r).size() <= w;
+  out << paint_headline(exposure_headline(r), exposure_verdict(r), options.colour) << (one_line ? "    " : "\n")
       << paint_headline(installation_headline(r), installation_verdict(r), options.colour) << "\n";
   // The findings say what the headline sentence says, one by one; without findings, the headline.
   const auto fs = findings(r);

@@ -26,7 +26,7 @@ std::vector<std::pair<std::string, std::string>> report_files(const Record& r) {
     if (op.ratio_vs_distance.empty()) continue;
     const std::string name = chart_file_name(op.name);
     if (!seen.insert(name).second) continue;  // two names with one slug: the first one's chart is kept
-    files.emplace_back(name, ratio_chart_svg(op, true));
+    files.emplace_back(name, ratio_chart_svg(op, true, chart_marks(r, op)));
   }
   return files;
 }

@@ -4,6 +4,9 @@
 // and review the diff before committing it.
 #include <catch2/catch.hpp>
 
+#include <stdlib.h>
+#include <unistd.h>
+
 #include <filesystem>
 #include <fstream>
 #include <map>
@@ -12,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/run.hpp"
+#include "report/format.hpp"
 #include "xml_check.hpp"
 
 namespace fs = std::filesystem;
@@ -64,9 +68,24 @@ TEST_CASE("standoff demo --out regenerates the committed demo report", "[report]
   const fs::path dir = fs::temp_directory_path() / ("standoff-demo-report-" + std::to_string(::getpid()));
   fs::remove_all(dir);
   std::ostringstream out, err;
+  ::unsetenv("COLUMNS");  // the summary's width is 100 columns unless COLUMNS narrows it
   const int code = standoff::cli::run({"demo", "--out", dir.string(), "--threads", "2"}, out, err);
   INFO(err.str());
   REQUIRE(code == 0);  // demo exits 0 once evaluated; its finding is intended (issue 5)
+
+  // The terminal summary of the demo fits 100 columns and 40 lines (issue 13), and says both verdicts.
+  {
+    std::istringstream in(out.str());
+    std::size_t lines = 0;
+    for (std::string line; std::getline(in, line);) {
+      ++lines;
+      INFO(line);
+      CHECK(standoff::report::fmtx::display_width(line) <= 100);
+    }
+    CHECK(lines <= 40);
+    CHECK(out.str().find("RF exposure: EXCEEDS") != std::string::npos);
+    CHECK(out.str().find("Installation: FAIL (2 of 46 checks)") != std::string::npos);
+  }
 
   const auto fresh = files_in(dir), old = files_in(committed);
   std::vector<std::string> fresh_names, old_names;
@@ -90,6 +109,8 @@ TEST_CASE("standoff demo --out regenerates the committed demo report", "[report]
   // The regenerated record shows the intended finding, and every SVG is well-formed.
   const auto j = nlohmann::json::parse(fresh.at("report.json"));
   CHECK(j.at("verdict") == "exceeds");
+  CHECK(j.at("exposure_verdict") == "exceeds");
+  CHECK(j.at("installation_verdict") == "fail");
   for (const auto& [name, text] : fresh) {
     if (name.size() > 4 && name.substr(name.size() - 4) == ".svg") {
       INFO(name);

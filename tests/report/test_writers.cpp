@@ -10,6 +10,7 @@
 #include <sstream>
 
 #include "fixture.hpp"
+#include "report/findings.hpp"
 #include "report/format.hpp"
 #include "report/svg.hpp"
 #include "report/writers.hpp"
@@ -171,8 +172,9 @@ TEST_CASE("every SVG is well-formed and the HTML is self-contained", "[report][s
   CHECK(html.find("Test Station &lt;A&amp;B&gt;") != std::string::npos);
   CHECK(html.find("<A&B>") == std::string::npos);
   // Content required by issue 7.
-  for (const char* text : {"Verdict per operation", "Power chain", "Permitted PEP", "Screening distance",
-                           "Detailed distance", "Power-line clearances", "Assumptions and methods", "Cautions",
+  for (const char* text : {"Verdict per operation", "Power chain", "Permitted PEP", "Keep-away, screening",
+                           "Keep-away, detailed", "Installation near power lines", "Findings and remedies",
+                           "RF exposure:", "Installation:", "Checks by rule", "Appendix: every installation check", "Assumptions and methods", "Cautions",
                            "RF burns", "power line", "falls", "lightning", "local codes", "Evaluated by", "Signature",
                            "SHA-256", "confidence: confirmed"}) {
     INFO(text);
@@ -329,4 +331,203 @@ TEST_CASE("an output directory that cannot be created is bad input", "[report][f
   { std::ofstream(dir / "plain") << "x"; }
   CHECK_THROWS_AS(write_report(synthetic_record(), dir / "plain" / "sub"), standoff::InputError);
   fs::remove_all(dir);
+}
+
+// ---- issue 13: the two verdicts, finding sentences, the terminal summary, numbers for people ----
+
+TEST_CASE("the two verdicts are kept apart and combined", "[report][verdicts]") {
+  auto r = synthetic_record();  // exposure exceeds, one of two clearance checks fails
+  CHECK(exposure_verdict(r) == "exceeds");
+  CHECK(installation_verdict(r) == "fail");
+  CHECK(exposure_headline(r) == "RF exposure: EXCEEDS");
+  CHECK(installation_headline(r) == "Installation: FAIL (1 of 2 checks)");
+  const auto j = to_json(r);
+  CHECK(j.at("exposure_verdict") == "exceeds");
+  CHECK(j.at("installation_verdict") == "fail");
+  CHECK(j.at("verdict") == "exceeds");
+  CHECK(j.at("installation_failures") == 1);
+
+  r.evaluation.verdict = standoff::exposure::Verdict::within;
+  r.lines->checks[1].pass = true;
+  CHECK(exposure_headline(r) == "RF exposure: WITHIN LIMITS");
+  CHECK(installation_headline(r) == "Installation: PASS (2 checks)");
+  CHECK(to_json(r).at("installation_verdict") == "pass");
+  CHECK(overall_verdict(r) == "within");
+  r.lines.reset();
+  CHECK(installation_verdict(r) == "not checked");
+  CHECK(to_json(r).at("installation_verdict") == "not checked");
+  // Every written form says both.
+  r = synthetic_record();
+  std::ostringstream text;
+  write_text(r, text, {});
+  for (const std::string& form : {text.str(), to_markdown(r), to_html(r)}) {
+    CHECK(form.find("RF exposure") != std::string::npos);
+    CHECK(form.find("EXCEEDS") != std::string::npos);
+    CHECK(form.find("Installation") != std::string::npos);
+    CHECK(form.find("FAIL") != std::string::npos);
+  }
+}
+
+TEST_CASE("one sentence per finding: what, where, how much, remedy", "[report][findings]") {
+  auto r = synthetic_record();
+  r.units = UnitSystem::metric;
+  const auto fs = findings(r);
+  // The exceeding operation (the not-evaluated one is a finding too) and the failed check.
+  REQUIRE(fs.size() == 3);
+  const std::string& exp = fs[0].sentence;
+  CHECK(exp.find("20 m SSB") == 0);
+  CHECK(exp.find("212.4 %") != std::string::npos);               // how much: 2.1234 rounded up to 0.1 %
+  CHECK(exp.find("(21.0, 15.0, 1.0) m") != std::string::npos);   // where
+  CHECK(exp.find("3.2 m") != std::string::npos);                 // detailed keep-away, controlled
+  CHECK(exp.find("8.7 m") != std::string::npos);                 // detailed keep-away, uncontrolled
+  CHECK(exp.find("706 W") != std::string::npos);                 // permitted PEP, rounded down
+  CHECK(fs[1].sentence.find("not be evaluated") != std::string::npos);
+  const std::string& inst = fs[2].sentence;
+  CHECK_FALSE(fs[2].exposure);
+  CHECK(inst.find("Standing clearance: the wire can come within 2.9 m of the L1 where at least 3.1 m is required "
+                  "(NFPA 70 810.13)") == 0);
+  CHECK(inst.find("re-tension") != std::string::npos);  // the generic remedy for the rule
+  // A computed remedy replaces the generic one of the finding about the same subject, and one for
+  // an operation is appended to its sentence.
+  r.remedies = {{"wire", "raise the wire's lowest point to 8.2 m."}, {"20 m SSB", "or move the antenna 4 m north"}};
+  const auto fs2 = findings(r);
+  CHECK(fs2[2].sentence.find("raise the wire's lowest point to 8.2 m.") != std::string::npos);
+  CHECK(fs2[2].sentence.find("re-tension") == std::string::npos);
+  CHECK(fs2[0].sentence.find("or move the antenna 4 m north.") != std::string::npos);
+  // Feet beside metres when asked (the approach distance is a rule in feet).
+  r.units = UnitSystem::both;
+  CHECK(findings(r)[2].sentence.find("3.1 m (10.1 ft)") != std::string::npos);  // 3.05 m, rounded up in each unit
+}
+
+TEST_CASE("the terminal summary folds to the width and --verbose keeps the detail", "[report][text]") {
+  const auto r = synthetic_record();
+  for (const std::size_t width : {100u, 60u, 40u}) {
+    std::ostringstream out;
+    TextOptions o;
+    o.width = width;
+    write_text(r, out, o);
+    std::istringstream in(out.str());
+    for (std::string line; std::getline(in, line);) {
+      INFO(width << ": " << line);
+      CHECK(fmtx::display_width(line) <= width);
+    }
+  }
+  std::ostringstream verbose;
+  TextOptions v;
+  v.verbose = true;
+  write_text(r, verbose, v);
+  CHECK(verbose.str().find("duty factor (SSB, 20 %)") != std::string::npos);  // every power-chain step
+  CHECK(text_width("72") == 72);
+  CHECK(text_width("") == 100);
+  CHECK(text_width("250") == 100);
+  CHECK(text_width("abc") == 100);
+}
+
+TEST_CASE("wrapping never cuts a word and keeps the indents", "[report][text]") {
+  const std::string w = fmtx::wrap("alpha beta gamma delta", 12, "* ", "  ");
+  CHECK(w == "* alpha beta\n  gamma\n  delta\n");
+  CHECK(fmtx::wrap("averyveryverylongword x", 8, "", "") == "averyveryverylongword\nx\n");
+}
+
+TEST_CASE("numbers for people", "[report][numbers]") {
+  CHECK(fmtx::power(1500) == "1500 W");
+  CHECK(fmtx::power(92400) == "92.4 kW");
+  CHECK(fmtx::power(12300) == "12.3 kW");
+  CHECK(fmtx::permitted_power(603000.0) == "more than 100 kW");
+  CHECK(fmtx::permitted_power(6.519) == "6.51 W");  // rounded down
+  CHECK(fmtx::percent_up(230.132) == "23 014 %");
+  CHECK(fmtx::percent_up(2.1234) == "212.4 %");
+  CHECK(fmtx::voltage(240) == "240 V");
+  CHECK(fmtx::voltage(7200) == "7.2 kV");
+  // 10 ft = 3.048 m exactly (NIST SP 811, international foot): up and down to 0.1 ft.
+  CHECK(fmtx::length_up(3.048, UnitSystem::both) == "3.1 m (10.0 ft)");
+  CHECK(fmtx::length_up(3.048, UnitSystem::imperial) == "10.0 ft");
+  CHECK(fmtx::length_down(3.06, UnitSystem::both) == "3.0 m (10.0 ft)");
+  CHECK(fmtx::length_up(3.048, UnitSystem::metric) == "3.1 m");
+  // No exponent notation in any text output of the record.
+  auto r = synthetic_record();
+  r.evaluation.operations[0].permitted_pep_w = 4.2e9;
+  std::ostringstream text;
+  write_text(r, text, {});
+  for (const std::string& form : {text.str(), to_markdown(r)}) {
+    CHECK(form.find("e+") == std::string::npos);
+    CHECK(form.find("more than 100 kW") != std::string::npos);
+  }
+}
+
+TEST_CASE("cautions are said once each, gravest first", "[report][cautions]") {
+  auto r = synthetic_record();
+  r.lines->cautions = {"Call the utility before any work near overhead lines: have them confirm the voltage.",
+                       "Assume every overhead line is energised and uninsulated, including service drops.",
+                       "Sag grows with heat, ice and wind."};
+  r.evaluation.cautions = {"Fields are computed without buildings in them."};
+  r.cautions = all_cautions(r);
+  const auto c = all_cautions(r);  // a second pass over its own output adds nothing
+  CHECK(c.size() == r.cautions.size());
+  CHECK(c.front().find("Overhead power lines kill") == 0);  // electrocution first
+  CHECK(c[1].find("RF burns") != std::string::npos);
+  std::size_t utility = 0;
+  for (const auto& s : c) utility += s.find("Call the utility") != std::string::npos ? 1 : 0;
+  CHECK(utility == 1);
+  const auto pos = [&](const char* key) {
+    return std::find_if(c.begin(), c.end(), [&](const std::string& s) { return s.find(key) != std::string::npos; }) - c.begin();
+  };
+  CHECK(pos("Sag grows") < pos("Fields are computed"));  // physical harm before the model's caveats
+  CHECK(pos("local codes") == static_cast<long>(c.size()) - 1);
+}
+
+TEST_CASE("map labels do not overlap and the map shows lines, wires, worst points and failures", "[report][svg]") {
+  LabelPlacer p;
+  const auto a = p.place("first label", 10, {{100, 100, "start"}});
+  const auto b = p.place("second label", 10, {{105, 100, "start"}, {100, 120, "start"}});
+  CHECK(a == 0);
+  CHECK(b == 1);  // the first candidate overlaps the first label
+  CHECK_FALSE(p.boxes()[0].overlaps(p.boxes()[1]));
+
+  auto r = synthetic_record();
+  r.map.spans.push_back({"wire", "antenna", {12, 15, 10}, {28, 15, 10}});
+  r.map.spans.push_back({"feeder", "feed_line", {20, 15, 10}, {5, 5, 3}});
+  const std::string svg = site_map_svg(r, true);
+  CHECK(svg.find("id=\"sm-power-lines\"") != std::string::npos);
+  CHECK(svg.find("class=\"approach\"") != std::string::npos);   // approach distance band around L1
+  CHECK(svg.find("L1 — 7.2 kV, 8 m") != std::string::npos);    // labelled with voltage and height
+  CHECK(svg.find("stroke-dasharray=\"7 3\"") != std::string::npos);  // the feed line span
+  CHECK(svg.find("id=\"sm-worst\"") != std::string::npos);
+  CHECK(svg.find("FAIL standing clearance: wire") != std::string::npos);
+  CHECK(svg.find("origin (0, 0)") != std::string::npos);
+  CHECK(svg.find(" ft</text>") != std::string::npos);          // scale bar in feet too
+  CHECK(svg.find("id=\"sm-title-block\"") != std::string::npos);
+  // Fall zones outlined (never filled) in a hue no contour uses.
+  const auto fz = svg.substr(svg.find("id=\"sm-fall-zones\""), 400);
+  CHECK(fz.find("fill=\"none\"") != std::string::npos);
+  CHECK(fz.find(palette::bluish_green) != std::string::npos);
+  CHECK_FALSE(test::xml_well_formed(svg));
+}
+
+TEST_CASE("a 10 % contour appears when nothing reaches 50 %", "[report][svg]") {
+  auto r = synthetic_record();
+  for (auto& g : r.evaluation.grids) {
+    for (auto& l : g.layers) {
+      for (auto& v : l.ratio_controlled) v *= 0.01;  // peak 36 × 0.01 < 50 %
+      for (auto& v : l.ratio_uncontrolled) v *= 0.01;
+    }
+  }
+  const auto cs = map_contours(r.evaluation);
+  REQUIRE_FALSE(cs.empty());
+  for (const auto& c : cs) CHECK(c.level == Approx(0.1));
+}
+
+TEST_CASE("charts mark the keep-away distances, the property line and the neighbour, with a feet axis", "[report][svg]") {
+  const auto r = synthetic_record();
+  const auto marks = chart_marks(r, r.evaluation.operations[0]);
+  REQUIRE(marks.property_line_m);
+  CHECK(*marks.property_line_m == Approx(15.0));  // antenna at (20, 15) in a 40 × 30 m boundary
+  REQUIRE(marks.neighbour_m);
+  CHECK(*marks.neighbour_m == Approx(std::hypot(15.0, 10.0)));
+  const std::string svg = ratio_chart_svg(r.evaluation.operations[0], true, marks);
+  CHECK(svg.find("property line 15.0 m") != std::string::npos);
+  CHECK(svg.find("window 18.1 m") != std::string::npos);
+  CHECK(svg.find("keep-away, controlled 3.2 m") != std::string::npos);
+  CHECK(svg.find("(ft)") != std::string::npos);
+  CHECK_FALSE(test::xml_well_formed(svg));
 }
