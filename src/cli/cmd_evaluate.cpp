@@ -164,6 +164,7 @@ std::function<void(double)> progress_for(std::ostream& err, bool json) {
 
 int run_evaluation(const EvalOptions& o, std::string_view text, const std::string& input_name,
                    const std::string& file_for_messages, std::ostream& out, std::ostream& err) {
+  (void)units_option(o.units, limits::Standard::fcc);  // a bad --units is refused before any work
   const station::Station st = station::load_station(text, file_for_messages);
   station::BuildOptions bo;
   bo.standard = standard_option(o.standard);

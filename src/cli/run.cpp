@@ -11,6 +11,7 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   CLI::App app{"standoff — RF exposure and installation-safety evaluation for radio stations"};
   app.name("standoff");
   app.require_subcommand(1);
+  app.set_version_flag("--version", std::string("standoff ") + STANDOFF_VERSION, "Print the version and exit");
   Commands commands;
   add_limits(app, commands);
   add_distance(app, commands);

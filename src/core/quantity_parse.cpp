@@ -59,8 +59,31 @@ double parse_with(std::string_view text, const Where& where, const std::array<Un
   const auto [number, unit] = split_number(text, where, expected);
   if (unit.empty())
     throw InputError(where, "\"" + std::string(text) + "\" has no unit: expected " + std::string(expected));
+  // Exact spelling first; then without regard to letter case where that is unambiguous: exactly
+  // one unit matches and the first letter keeps its case when it is m or M (milli or mega:
+  // "mHz", "MW" and "MM" stay refused).
+  const UnitSpec* match = nullptr;
   for (const auto& u : units) {
-    if (u.name != unit) continue;
+    if (u.name == unit) match = &u;
+  }
+  if (!match) {
+    auto lower = [](std::string_view a) {
+      std::string o;
+      for (const char c : a) o += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+      return o;
+    };
+    std::size_t n = 0;
+    for (const auto& u : units) {
+      if (lower(u.name) != lower(unit)) continue;
+      const char a = u.name.front(), b = unit.front();
+      if ((a == 'm' || a == 'M' || b == 'm' || b == 'M') && a != b) continue;
+      match = &u;
+      ++n;
+    }
+    if (n > 1) match = nullptr;
+  }
+  for (const auto& u : units) {
+    if (&u != match) continue;
     if (!u.log10 && sign == Sign::non_negative && number < 0.0)
       throw InputError(where, "\"" + std::string(text) + "\" is negative: expected " + std::string(expected) +
                                   " of zero or more");
@@ -76,7 +99,9 @@ double parse_with(std::string_view text, const Where& where, const std::array<Un
 
 constexpr std::array kLength{UnitSpec{"m", 1.0}, UnitSpec{"cm", 0.01}, UnitSpec{"mm", 0.001},
                              UnitSpec{"km", 1000.0}, UnitSpec{"ft", constants::metres_per_foot},
-                             UnitSpec{"in", constants::metres_per_inch},
+                             UnitSpec{"feet", constants::metres_per_foot}, UnitSpec{"foot", constants::metres_per_foot},
+                             UnitSpec{"'", constants::metres_per_foot}, UnitSpec{"in", constants::metres_per_inch},
+                             UnitSpec{"inch", constants::metres_per_inch}, UnitSpec{"inches", constants::metres_per_inch},
                              UnitSpec{"mi", constants::metres_per_mile}};
 constexpr std::array kFrequency{UnitSpec{"Hz", 1.0}, UnitSpec{"kHz", 1e3}, UnitSpec{"MHz", 1e6},
                                 UnitSpec{"GHz", 1e9}};
@@ -103,7 +128,7 @@ constexpr std::array kConductivity{UnitSpec{"S/m", 1.0}, UnitSpec{"mS/m", 1e-3}}
 }  // namespace
 
 units::Length parse_length(std::string_view text, const Where& where, Sign sign) {
-  return units::metres(parse_with(text, where, kLength, "a length in m, cm, mm, km, ft, in or mi", sign));
+  return units::metres(parse_with(text, where, kLength, "a length in m, cm, mm, km, ft (feet, '), in or mi", sign));
 }
 
 units::Frequency parse_frequency(std::string_view text, const Where& where) {

@@ -1,12 +1,26 @@
 #include "power/duty.hpp"
 
+#include <cctype>
 #include <stdexcept>
 
 namespace standoff::power {
 
+namespace {
+bool same_ignoring_case(const std::string& a, const std::string& b) {
+  if (a.size() != b.size()) return false;
+  for (std::size_t k = 0; k < a.size(); ++k) {
+    if (std::tolower(static_cast<unsigned char>(a[k])) != std::tolower(static_cast<unsigned char>(b[k]))) return false;
+  }
+  return true;
+}
+}  // namespace
+
 const DutyMode* DutyTable::find(const std::string& name) const {
   for (const auto& m : modes)
-    if (m.name == name) return &m;
+    if (same_ignoring_case(m.name, name)) return &m;
+  for (const auto& m : modes)
+    for (const auto& a : m.aliases)
+      if (same_ignoring_case(a, name)) return &m;
   return nullptr;
 }
 
@@ -15,6 +29,8 @@ std::string DutyTable::names() const {
   for (const auto& m : modes) {
     if (!s.empty()) s += ", ";
     s += m.name;
+    for (const auto& a : m.aliases) s += (&a == &m.aliases.front() ? " (also " : ", ") + a;
+    if (!m.aliases.empty()) s += ")";
   }
   return s;
 }

@@ -18,6 +18,7 @@ struct DutyMode {
   units::Fraction duty;     // average power / PEP, 0..1
   std::string source;       // e.g. "OET 65 Supplement B, Table 2" or "derived: (1+m²/2)/(1+m)², m = 1"
   bool derived = false;     // true when computed by a formula rather than read in a table
+  std::vector<std::string> aliases;  // trade names mapped to this duty class, e.g. "ft8" → afsk
   int source_line = 0;      // line in the table file, for messages
 };
 
@@ -26,6 +27,7 @@ struct DutyTable {
   std::string file;      // e.g. "tables/duty.toml"
   std::vector<DutyMode> modes;
 
+  // By name or trade name (alias), letter case ignored ("FT8", "ft8", "RTTY", "SSB").
   const DutyMode* find(const std::string& name) const;
   std::string names() const;  // "ssb, ssb-processed, cw, ..." for error messages
 };

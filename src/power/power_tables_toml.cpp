@@ -130,13 +130,22 @@ DutyTable load_duty_table(std::string_view text, const std::string& file) {
   for (std::size_t i = 0; i < modes->size(); ++i) {
     const auto& t = *(*modes)[i].as_table();
     Ctx ctx{file, "mode[" + std::to_string(i) + "]", line_of(t, 0)};
-    check_keys(t, ctx, {"name", "description", "duty", "derived", "modulation_index", "source"});
+    check_keys(t, ctx, {"name", "description", "duty", "derived", "modulation_index", "source", "aliases"});
     DutyMode m;
     m.source_line = ctx.line;
     m.name = get_string(require(t, ctx, "name"), ctx, "name");
     if (table.find(m.name)) ctx.fail("name", "duplicate mode \"" + m.name + "\"");
     m.description = opt_string(t, ctx, "description");
     m.source = get_string(require(t, ctx, "source"), ctx, "source");
+    if (const toml::node* al = t.get("aliases")) {
+      const auto* arr = al->as_array();
+      if (!arr) ctx.fail("aliases", "expected an array of trade names", line_of(*al, ctx.line));
+      for (const auto& e : *arr) {
+        const std::string a = get_string(e, ctx, "aliases");
+        if (table.find(a) || a == m.name) ctx.fail("aliases", "\"" + a + "\" names another mode already", line_of(e, ctx.line));
+        m.aliases.push_back(a);
+      }
+    }
     const toml::node* duty = t.get("duty");
     const toml::node* derived = t.get("derived");
     if ((duty != nullptr) == (derived != nullptr)) ctx.fail("duty", "give exactly one of `duty` and `derived`");

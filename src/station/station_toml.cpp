@@ -1,5 +1,6 @@
 #include "station/station_toml.hpp"
 
+#include <charconv>
 #include <fstream>
 #include <set>
 #include <sstream>
@@ -452,9 +453,21 @@ Station load_station(std::string_view toml_text, const std::string& file) {
       f.line_class = r.string("class");
       f.length = r.quantity("length", [](std::string_view t, const Where& w) { return parse_length(t, w); });
       if (const toml::node* sw = r.node("swr")) {
-        const auto v = sw->value<double>();
-        if (!v || !(*v >= 1.0)) throw InputError(r.where("swr"), "expected a number of 1 or more, e.g. swr = 1.5");
-        f.swr = *v;
+        // A number (swr = 1.5) or a quoted ratio (swr = "1.5" or "1.5:1").
+        double v = 0.0;
+        bool ok = false;
+        if (sw->is_number()) {
+          v = sw->value<double>().value_or(0.0);
+          ok = true;
+        } else if (const auto* str = sw->as_string()) {
+          std::string t = str->get();
+          while (!t.empty() && t.back() == ' ') t.pop_back();
+          if (t.size() > 2 && t.substr(t.size() - 2) == ":1") t.resize(t.size() - 2);
+          const auto [ptr, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
+          ok = ec == std::errc() && ptr == t.data() + t.size() && std::isfinite(v);
+        }
+        if (!ok || !(v >= 1.0)) throw InputError(r.where("swr"), "expected a number of 1 or more, e.g. swr = 1.5 or swr = \"1.5:1\"");
+        f.swr = v;
       }
       st.feed_lines.push_back(f);
     }
