@@ -1,6 +1,8 @@
 // `standoff wire KIND --freq F ...`: models one wire antenna with the thin-wire method of moments
 // (src/em): feed impedance, SWR on a reference impedance or a feed line (src/power/feedline.hpp),
 // peak gain, efficiency, and with --resonate the length that gives zero feed reactance.
+#include <complex>
+#include <cstring>
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -41,10 +43,21 @@ constexpr double kCliSegmentWavelengths = 1.0 / 80.0;
 // Peak-gain search grid (then refined), rad.
 constexpr double kGainStep = 2.0 * pi / 180.0;
 
+// `digits` significant figures, never in exponent notation (text is read by people).
 std::string sig(double v, int digits = 4) {
   char buf[64];
   std::snprintf(buf, sizeof buf, "%.*g", digits, v);
+  if (std::strchr(buf, 'e') == nullptr || !std::isfinite(v)) return buf;
+  const int mag = static_cast<int>(std::floor(std::log10(std::abs(v))));
+  const int decimals = std::clamp(digits - 1 - mag, 0, 15);
+  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
   return buf;
+}
+
+// "73.1 + j42.5 ohm"; a reactance below 0.01 ohm is shown as 0 (numerical noise at resonance).
+std::string impedance_text(std::complex<double> z) {
+  const double x = std::abs(z.imag()) < 0.01 ? 0.0 : z.imag();
+  return sig(z.real(), 4) + (x < 0 ? " - j" : " + j") + sig(std::abs(x), 4) + " ohm";
 }
 
 int parse_count(const std::string& text, const std::string& option, int lo, int hi) {
@@ -217,8 +230,7 @@ json to_json(const Result& r) {
 void print_text(std::ostream& out, const Result& r) {
   out << "frequency " << sig(r.f / 1e6, 6) << " MHz, length " << sig(r.length, 5) << " m"
       << (r.resonant_length ? " (trimmed to resonance)" : "") << "\n";
-  out << "  feed impedance " << sig(r.z.real(), 4) << (r.z.imag() < 0 ? " - j" : " + j") << sig(std::abs(r.z.imag()), 4)
-      << " ohm\n";
+  out << "  feed impedance " << impedance_text(r.z) << "\n";
   out << "  SWR " << (std::isfinite(r.swr) ? sig(r.swr, 3) : std::string("inf")) << " on " << sig(r.z0, 4) << " ohm";
   if (r.line) {
     out << " (" << r.line->name << ")";
@@ -231,8 +243,7 @@ void print_text(std::ostream& out, const Result& r) {
   out << "\n  peak gain " << sig(r.gain_dbi, 3) << " dBi, efficiency " << sig(100.0 * r.efficiency, 4) << " %, "
       << r.segments << " segments\n";
   if (r.perfect_ground_z)
-    out << "  over perfect ground instead: " << sig(r.perfect_ground_z->real(), 4)
-        << (r.perfect_ground_z->imag() < 0 ? " - j" : " + j") << sig(std::abs(r.perfect_ground_z->imag()), 4) << " ohm\n";
+    out << "  over perfect ground instead: " << impedance_text(*r.perfect_ground_z) << "\n";
   for (const auto& w : r.warnings) out << "  warning: " << w << "\n";
 }
 

@@ -163,16 +163,26 @@ std::string to_markdown(const Record& r) {
     }
   }
 
-  md += "## Power-line clearances\n\n";
+  md += "## Installation near power lines\n\n";
   if (r.lines) {
     rows.clear();
     for (const auto& c : r.lines->checks) {
-      rows.push_back({c.rule, c.subject, c.line, fmtx::distance_up(c.required_m), fmtx::distance_down(c.actual_m),
-                      "**" + fmtx::verdict_word(c.pass ? "pass" : "fail") + "**", c.source, c.note});
+      if (c.pass) continue;
+      rows.push_back({c.rule, c.subject, c.line, fmtx::length_up(c.required_m, r.units), fmtx::length_down(c.actual_m, r.units),
+                      "**FAIL**", c.note});
     }
-    md += table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Source", "Note"}, rows);
+    if (!rows.empty()) {
+      md += "### Failed checks\n\n" + table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Note"}, rows);
+    }
+    rows.clear();
+    for (const auto& s : rule_summaries(r)) {
+      rows.push_back({s.rule, s.failed > 0 ? "**" + std::to_string(s.failed) + " FAIL**" : "",
+                      s.passed > 0 ? std::to_string(s.passed) + " PASS" : "", s.source});
+    }
+    md += "### Checks by rule\n\n" + table({"Rule", "Failed", "Passed", "Source (cited once per rule)"}, rows);
     for (const auto& a : r.lines->assumptions) md += "- Assumption: " + text(a) + "\n";
     if (!r.lines->assumptions.empty()) md += "\n";
+    md += "Every check is listed in the appendix at the end and in report.json.\n\n";
   } else {
     md += "The station file describes no power lines or supports; no clearance checks were made.\n\n";
   }
@@ -189,6 +199,15 @@ std::string to_markdown(const Record& r) {
   md += "## Cautions\n\n";
   for (const auto& c : all_cautions(r)) md += "- **Caution:** " + text(c) + "\n";
   md += "\n";
+  if (r.lines && !r.lines->checks.empty()) {
+    rows.clear();
+    for (const auto& c : r.lines->checks) {
+      rows.push_back({c.rule, c.subject, c.line, fmtx::length_up(c.required_m, r.units), fmtx::length_down(c.actual_m, r.units),
+                      c.pass ? "PASS" : "**FAIL**"});
+    }
+    md += "## Appendix: every installation check\n\n" +
+          table({"Check", "Subject", "Power line", "Required", "Actual", "Result"}, rows);
+  }
   return md;
 }
 

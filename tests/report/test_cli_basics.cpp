@@ -95,3 +95,12 @@ TEST_CASE("a bad unit system is refused before any work", "[cli][units]") {
   CHECK(r.code == 2);
   CHECK(r.err.find("--units") != std::string::npos);
 }
+
+TEST_CASE("wire text: a reactance below 0.01 ohm is shown as 0, never in exponent notation", "[cli][numbers]") {
+  // At resonance the MoM leaves numerical noise in the reactance (|X| < 0.01 ohm, the JSON keeps it).
+  const auto r = run_cli({"wire", "dipole", "--freq", "14.2 MHz", "--radius", "21.1 mm", "--resonate"});
+  REQUIRE(r.code == 0);
+  CHECK(r.out.find(" + j0 ohm") != std::string::npos);
+  CHECK(r.out.find("e-") == std::string::npos);
+  CHECK(r.out.find("e+") == std::string::npos);
+}

@@ -46,7 +46,7 @@ TEST_CASE("bad station files: exit 2, file:line:field, nothing written", "[cli][
       {"unknown antenna reference", "antenna = \"doublet\"", "antenna = \"doublett\"", "operation[0].antenna: unknown antenna"},
       {"duplicate transmitter", "name = \"hf transceiver\"", "name = \"hf amplifier\"", "transmitter.name: duplicate name"},
       {"antenna below ground", "height = \"12 m\"", "height = \"-12 m\"", "antenna[0].height: antenna is below ground"},
-      {"unknown mode", "mode = \"fsk\"", "mode = \"morse\"", "operation[1].mode: unknown mode"},
+      {"unknown mode", "mode = \"fsk\"", "mode = \"smoke-signals\"", "operation[1].mode: unknown mode"},
       {"unknown line class", "class = \"ladder-450\"", "class = \"ladder-999\"", "feed_line[0].class: unknown feed-line class"},
       {"frequency outside the limits table", "frequency = \"7.15 MHz\"", "frequency = \"100 kHz\"", "operation[0].frequency"},
   }));
