@@ -187,7 +187,8 @@ LabelBox LabelPlacer::box_of(const std::string& text, double font_px, const Cand
   return {x0, c.y - 0.85 * font_px, x0 + w, c.y + 0.3 * font_px};
 }
 
-std::size_t LabelPlacer::place(const std::string& text, double font_px, const std::vector<Candidate>& candidates) {
+std::size_t LabelPlacer::place(const std::string& text, double font_px, const std::vector<Candidate>& candidates,
+                               bool required) {
   for (std::size_t k = 0; k < candidates.size(); ++k) {
     const LabelBox b = box_of(text, font_px, candidates[k]);
     if (std::none_of(boxes_.begin(), boxes_.end(), [&](const LabelBox& o) { return o.overlaps(b); })) {
@@ -195,6 +196,7 @@ std::size_t LabelPlacer::place(const std::string& text, double font_px, const st
       return k;
     }
   }
+  if (!required) return std::string::npos;
   boxes_.push_back(box_of(text, font_px, candidates.front()));
   return 0;
 }
@@ -562,16 +564,23 @@ std::string site_map_svg(const Record& r, bool standalone, bool compact) {
   // Labels last, placed so that they do not overlap each other or the markers.
   s += "<g id=\"" + pre + "labels\">\n";
   auto put = [&](const std::string& text, double font, const std::vector<LabelPlacer::Candidate>& cands, const char* colour,
-                 const char* extra = "") {
-    const std::size_t k = placer.place(text, font, cands);
+                 const char* extra = "", bool required = true) {
+    const std::size_t k = placer.place(text, font, cands, required);
+    if (k == std::string::npos) return;  // an optional label with no free place is left out
     std::string e = fmt::format(" font-size=\"{}\"{}", svg_num(font), extra);
     s += label(cands[k].x, cands[k].y, text, cands[k].anchor, colour, e.c_str());
   };
   auto around = [](double x, double y, double d) {
-    return std::vector<LabelPlacer::Candidate>{{x + d, y + 4, "start"},     {x - d, y + 4, "end"},
-                                               {x, y - d - 2, "middle"},    {x, y + d + 10, "middle"},
-                                               {x + d, y - d, "start"},     {x - d, y - d, "end"},
-                                               {x + d, y + d + 8, "start"}, {x - d, y + d + 8, "end"}};
+    std::vector<LabelPlacer::Candidate> c;
+    for (const double k : {1.0, 2.2}) {
+      const double e = d * k + (k > 1.0 ? 6.0 : 0.0);
+      for (const LabelPlacer::Candidate& q :
+           {LabelPlacer::Candidate{x + e, y + 4, "start"}, {x - e, y + 4, "end"}, {x, y - e - 2, "middle"},
+            {x, y + e + 10, "middle"}, {x + e, y - e, "start"}, {x - e, y - e, "end"}, {x + e, y + e + 8, "start"},
+            {x - e, y + e + 8, "end"}})
+        c.push_back(q);
+    }
+    return c;
   };
   // Power lines: name, voltage and height along their longest segment, placed on either side.
   for (const auto& l : m.power_lines) {
@@ -615,11 +624,11 @@ std::string site_map_svg(const Record& r, bool standalone, bool compact) {
   if (!compact) {
     for (const auto& sp : m.supports) {
       put(fmt::format("{} ({} m)", sp.name, svg_num(sp.height_m)), 10, around(f.X(sp.base.x_m), f.Y(sp.base.y_m), 8),
-          palette::black);
+          palette::black, "", false);
     }
     for (const auto& sp : m.spans) {
       const double x = f.X(0.5 * (sp.from.x_m + sp.to.x_m)), y = f.Y(0.5 * (sp.from.y_m + sp.to.y_m));
-      put(sp.name, 10, around(x, y, 6), "#7a3a62", " font-style=\"italic\"");
+      put(sp.name, 10, around(x, y, 6), "#7a3a62", " font-style=\"italic\"", false);
     }
     for (const auto& p : m.points) {
       put(fmt::format("{} ({} m)", p.name, svg_num(p.at.z_m)), 10, around(f.X(p.at.x_m), f.Y(p.at.y_m), 7),
@@ -632,7 +641,7 @@ std::string site_map_svg(const Record& r, bool standalone, bool compact) {
     for (const auto& p : bld.points) { cx += p.x_m; cy += p.y_m; }
     cx /= static_cast<double>(bld.points.size());
     cy /= static_cast<double>(bld.points.size());
-    put(bld.name, 10, around(f.X(cx), f.Y(cy), 0), "#333333");
+    put(bld.name, 10, around(f.X(cx), f.Y(cy), 0), "#333333", "", false);
   }
   for (const auto& z : m.zones) {
     if (z.points.empty() || compact) continue;
@@ -641,7 +650,7 @@ std::string site_map_svg(const Record& r, bool standalone, bool compact) {
     });
     const double x = std::max(f.X(lowest->x_m), f.left) + 4, y = std::min(f.Y(lowest->y_m), f.top + map_h) - 4;
     put(z.name + " (" + tier_name(z.tier) + ")", 10, {{x, y, "start"}, {x, y - 14, "start"}, {x + 60, y - 28, "start"}},
-        z.tier == limits::Tier::controlled ? palette::blue : "#6b6100", " font-style=\"italic\"");
+        z.tier == limits::Tier::controlled ? palette::blue : "#6b6100", " font-style=\"italic\"", false);
   }
   for (std::size_t k = 0; k < contour_label_at.size(); ++k) {
     const auto& [text, at] = contour_label_at[k];

@@ -62,13 +62,15 @@ struct LabelBox {
 };
 class LabelPlacer {
  public:
-  // Returns the index of the candidate taken (the first one if all overlap) and records its box.
+  // Returns the index of the candidate taken and records its box. When every candidate overlaps,
+  // a `required` label takes the first one anyway; an optional one is left out (returns npos).
   // Candidates are (x, y, anchor) with anchor "start", "middle" or "end"; y is the text baseline.
   struct Candidate {
     double x, y;
     const char* anchor;
   };
-  std::size_t place(const std::string& text, double font_px, const std::vector<Candidate>& candidates);
+  std::size_t place(const std::string& text, double font_px, const std::vector<Candidate>& candidates,
+                    bool required = true);
   void block(const LabelBox& b) { boxes_.push_back(b); }
   const std::vector<LabelBox>& boxes() const { return boxes_; }
   static LabelBox box_of(const std::string& text, double font_px, const Candidate& c);
