@@ -799,8 +799,7 @@ ChartMarks chart_marks(const Record& r, const exposure::OperationResult& op) {
 
 std::string ratio_chart_svg(const exposure::OperationResult& op, bool standalone, const ChartMarks& marks) {
   const bool feet_axis = marks.units != UnitSystem::metric;
-  const double width = 660, height = 360, left = 86, right = 150, top = feet_axis ? 62 : 40, bottom = 48;
-  const double pw = width - left - right, ph = height - top - bottom;
+  const double width = 660, height = 360, right = 150, top = feet_axis ? 62 : 40, bottom = 48;
   const auto& samples = op.ratio_vs_distance;
 
   double dmax = 1.0, rmax = 1.0, rmin = std::numeric_limits<double>::infinity();
@@ -825,6 +824,18 @@ std::string ratio_chart_svg(const exposure::OperationResult& op, bool standalone
   const double dec_lo = std::max(std::floor(std::log10(rmin)), std::ceil(std::log10(rmax)) - 6.0);
   const double dec_hi = std::max(std::ceil(std::log10(rmax)), 0.0);
   const double dec_span = std::max(dec_hi - dec_lo, 1.0);
+  auto tick_text = [](double dec) {
+    const double pct = std::pow(10.0, dec + 2.0);
+    return (pct >= 1.0 ? fmtx::grouped(static_cast<long long>(std::llround(pct)))
+                       : fmt::format("{:.{}f}", pct, static_cast<int>(-std::floor(std::log10(pct) + 1e-9)))) +
+           " %";
+  };
+  // The plot starts right of the widest tick label (about 0.6 em a character at 11 px) and the
+  // rotated axis title left of it, so that the title never meets a tick label.
+  std::size_t widest = 0;
+  for (double dec = dec_lo; dec <= dec_hi + 1e-9; dec += 1.0) widest = std::max(widest, tick_text(dec).size());
+  const double left = std::max(86.0, 24.0 + 6.6 * static_cast<double>(widest) + 8.0);
+  const double pw = width - left - right, ph = height - top - bottom;
   const double step = nice_below(dmax / 5.0);
   const double d_top = std::ceil(dmax / step * (1.0 - 1e-9)) * step;
   auto X = [&](double d) { return left + pw * std::clamp(d, 0.0, d_top) / d_top; };
@@ -845,11 +856,8 @@ std::string ratio_chart_svg(const exposure::OperationResult& op, bool standalone
     const double y = Y(std::pow(10.0, dec));
     s += fmt::format("<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke=\"#dddddd\"/>\n", svg_num(left), svg_num(y),
                      svg_num(left + pw), svg_num(y));
-    const double pct = std::pow(10.0, dec + 2.0);
-    const std::string txt = pct >= 1.0 ? fmtx::grouped(static_cast<long long>(std::llround(pct)))
-                                       : fmt::format("{:.{}f}", pct, static_cast<int>(-std::floor(std::log10(pct) + 1e-9)));
-    s += fmt::format("<text x=\"{}\" y=\"{}\" text-anchor=\"end\" stroke=\"none\" fill=\"#000000\">{} %</text>\n",
-                     svg_num(left - 6), svg_num(y + 4), txt);
+    s += fmt::format("<text x=\"{}\" y=\"{}\" text-anchor=\"end\" stroke=\"none\" fill=\"#000000\">{}</text>\n",
+                     svg_num(left - 6), svg_num(y + 4), tick_text(dec));
   }
   for (double d = 0.0; d <= d_top + 1e-9; d += step) {
     const double x = X(d);

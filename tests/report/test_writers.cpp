@@ -531,3 +531,20 @@ TEST_CASE("charts mark the keep-away distances, the property line and the neighb
   CHECK(svg.find("(ft)") != std::string::npos);
   CHECK_FALSE(test::xml_well_formed(svg));
 }
+
+TEST_CASE("the chart's axis title never meets its tick labels", "[report][svg]") {
+  auto op = synthetic_record().evaluation.operations[0];
+  for (auto& smp : op.ratio_vs_distance) {
+    if (smp.ratio_uncontrolled) smp.ratio_uncontrolled = *smp.ratio_uncontrolled * 1e4;
+  }
+  const std::string svg = ratio_chart_svg(op, true);
+  const std::string widest = ">100 000 000 %</text>";  // the top decade: 36 × 10^4 → 10^8 %
+  const auto at = svg.find(widest);
+  REQUIRE(at != std::string::npos);
+  const auto x_at = svg.rfind("x=\"", at);
+  const double x_end = std::stod(svg.substr(x_at + 3));
+  // Right-aligned at x_end; about 0.6 em a character at 11 px (the placer's estimate). The rotated
+  // title is centred at x = 14 with 11 px text: it reaches x = 20.
+  const double x_start = x_end - 0.6 * 11.0 * 13.0;
+  CHECK(x_start > 20.0);
+}
