@@ -7,6 +7,8 @@
 
 #include <toml++/toml.h>
 
+#include <string>
+
 #include "cli/command.hpp"
 #include "siting/checks.hpp"
 #include "siting/clearances_toml.hpp"
@@ -47,8 +49,16 @@ void add_lines(CLI::App& root, Commands& commands) {
     const auto report = siting::run_checks(site, siting::builtin_clearance_tables());
     if (o->json)
       out << siting::lines_report_json(report).dump(2) << "\n";
-    else
+    else {
       out << siting::lines_report_text(report);
+      // The installation verdict in the record's words (issue 13).
+      std::size_t failed = 0;
+      for (const auto& c : report.checks) failed += c.pass() ? 0 : 1;
+      const std::size_t n = report.checks.size();
+      out << (failed > 0 ? "Installation: FAIL (" + std::to_string(failed) + " of " + std::to_string(n) + " checks)"
+                         : "Installation: PASS (" + std::to_string(n) + (n == 1 ? " check)" : " checks)"))
+          << "\n";
+    }
     return report.all_pass() ? kOk : kExceeds;
   }});
 }

@@ -104,3 +104,9 @@ TEST_CASE("wire text: a reactance below 0.01 ohm is shown as 0, never in exponen
   CHECK(r.out.find("e-") == std::string::npos);
   CHECK(r.out.find("e+") == std::string::npos);
 }
+
+TEST_CASE("standoff lines ends with the installation verdict in the record's words", "[cli][verdicts]") {
+  const auto r = run_cli({"lines", std::string(STANDOFF_SOURCE_DIR) + "/docs/examples/demo-station.toml"});
+  CHECK(r.code == 1);
+  CHECK(r.out.find("Installation: FAIL (2 of 46 checks)\n") != std::string::npos);
+}
