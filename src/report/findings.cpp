@@ -213,7 +213,8 @@ std::string headline_sentence(const Record& r) {
     std::string s = fmt::format("the {} fails the {} check", g.subject, g.rule);
     if (!g.lines.empty()) s += " against " + join_and(the(g.lines));
     if (g.actual_m && g.required_m)
-      s += fmt::format(" ({} where {} is required)", fmtx::length_down(g.actual_m, r.units), fmtx::length_up(g.required_m, r.units));
+      s += fmt::format(", coming within {} where {} is required", fmtx::length_down(g.actual_m, r.units),
+                       fmtx::length_up(g.required_m, r.units));
     const std::size_t more = installation_failures(r) - g.count;
     if (more > 0) s += fmt::format(", and {} more installation check(s) fail", more);
     parts.push_back(s);
