@@ -208,6 +208,8 @@ std::string to_html(const Record& r) {
   }
   h += "</section>\n";
 
+  if (r.placement) h += r.placement->html_section;  // issue 10: `evaluate --place`
+
   h += "<section id=\"methods\"><h2>Assumptions and methods</h2>\n<ul>\n";
   if (!ev.body_rule.empty()) h += "<li>Body line: " + esc(ev.body_rule) + "</li>\n";
   h += "<li>" + esc(fmt::format("Zone grid spacing: {} m.", ev.grid_spacing_m)) + "</li>\n";

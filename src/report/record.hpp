@@ -130,6 +130,13 @@ struct Record {
   std::vector<std::string> assumptions;
   std::vector<Reference> references;
   std::vector<std::string> cautions;
+  // Placement search (`evaluate --place`, issue 10): a self-contained HTML section and the heat
+  // map file, built by report/place_report.cpp; absent unless asked for.
+  struct Placement {
+    std::string html_section;
+    std::string heatmap_svg;  // written as place-heatmap.svg
+  };
+  std::optional<Placement> placement;
 };
 
 // ---- Helpers shared by the writers ----
