@@ -66,6 +66,8 @@ std::vector<std::string> cautions() {
           "evaluate` and measure where a result is close to a limit.",
           "Permitted PEP is the exposure limit alone (and 0 W where a power-line check fails); the licence, the "
           "equipment and the line's power rating may limit the power far below it.",
+          "A lossier feed line permits more transmitter power for the same exposure only because it wastes "
+          "power: compare the loss column (or `--line`) before choosing a line for its permitted power.",
           "Power-line checks follow `standoff lines`; local codes, the utility and licensed practice govern."};
 }
 

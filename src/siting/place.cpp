@@ -383,6 +383,7 @@ std::vector<Candidate> PlaceEngine::Impl::evaluate_position(double x, double y, 
     cand.exposure_permitted_pep_w = std::isfinite(least) ? least : 0.0;
     cand.permitted_pep_w = cand.exposure_permitted_pep_w;
     cand.lines_checked = false;
+    cand.exposure_binding = cand.binding;
     if (check_lines) apply_line_checks(cand);
     out.push_back(std::move(cand));
   }
@@ -577,6 +578,7 @@ PlaceResult place(const PlaceSetup& s) {
               std::lower_bound(az.begin(), az.end(), cnd.azimuth_rad - 1e-12) - az.begin());
           if (ai < az.size() && ref[ai] && ref_slack[ai] - engine.impl_->displacement_bound(cnd, *ref[ai]) > 0.1) {
             cnd.lines_checked = true;  // passes: within the slack of a checked placement
+            cnd.lines_inferred = true;
             break;
           }
           // And a failure: a check that misses by more than the displacement (plus a cushion for
@@ -584,6 +586,7 @@ PlaceResult place(const PlaceSetup& s) {
           if (ai < az.size() && ref_fail[ai] &&
               ref_deficit[ai] - engine.impl_->displacement_bound(cnd, *ref_fail[ai]) > 0.25) {
             cnd.lines_checked = true;
+            cnd.lines_inferred = true;
             cnd.clearance_ok = false;
             cnd.permitted_pep_w = 0.0;
             cnd.binding = ref_fail[ai]->binding;  // the check that misses by most there
@@ -643,7 +646,14 @@ PlaceResult place(const PlaceSetup& s) {
   std::vector<Candidate> clear, failing;
   for (auto& cnd : all) {
     if (clear.size() >= s.top) break;
-    if (!cnd.lines_checked) engine.apply_line_checks(cnd);
+    if (!cnd.lines_checked || cnd.lines_inferred) {  // listed candidates are checked in full
+      cnd.clearance_ok = true;
+      cnd.permitted_pep_w = cnd.exposure_permitted_pep_w;
+      cnd.binding = cnd.exposure_binding;
+      cnd.failed_checks.clear();
+      cnd.lines_inferred = false;
+      engine.apply_line_checks(cnd);
+    }
     (cnd.clearance_ok ? clear : failing).push_back(std::move(cnd));
   }
   std::sort(clear.begin(), clear.end(), better);

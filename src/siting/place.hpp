@@ -133,6 +133,8 @@ struct Candidate {
   std::size_t map_points = 0;      // body lines or points read from the map
   std::vector<std::string> failed_checks;  // "rule: subject vs line"
   bool lines_checked = false;  // the power-line checks have been run (clearance_ok means nothing before)
+  bool lines_inferred = false; // … or inferred from a neighbouring checked placement (docs/methods.md)
+  Binding exposure_binding;    // the binding reason of the exposure alone
 };
 
 // Best permitted PEP over the azimuths at each candidate position, for the heat map.
