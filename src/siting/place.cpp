@@ -545,9 +545,9 @@ PlaceResult place(const PlaceSetup& s) {
   std::vector<std::vector<Candidate>> per_position(positions.size());
   // Positions in fixed groups, each group in order on one thread, so that the results (including
   // the reuse of line checks below) do not depend on the thread count.
-  constexpr std::size_t kGroup = 16;
+  constexpr std::size_t kGroup = 64;
   const std::size_t groups = (positions.size() + kGroup - 1) / kGroup;
-  const std::size_t chunk = 8;  // groups between progress reports
+  const std::size_t chunk = 4;  // groups between progress reports
   for (std::size_t start = 0; start < groups; start += chunk) {
     const std::size_t end = std::min(groups, start + chunk);
     parallel_blocks(end - start, threads, 1, [&](std::size_t gb, std::size_t ge) {

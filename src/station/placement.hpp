@@ -21,7 +21,7 @@ struct PlaceOptions {
   std::size_t top = 10;
   unsigned threads = 0;
   std::optional<limits::Standard> standard;
-  int map_nodes_per_half_width = 48;
+  int map_nodes_per_half_width = 40;
 };
 
 // Everything `place` needs, kept alive together (the setup refers to the maps).

@@ -33,7 +33,7 @@ void BM_PlaceDemoDefault(benchmark::State& state) {
     state.counters["placements"] = static_cast<double>(res.placements);
   }
 }
-BENCHMARK(BM_PlaceDemoDefault)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->UseRealTime()->Iterations(1)->Repetitions(2);
+BENCHMARK(BM_PlaceDemoDefault)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime()->UseRealTime()->Iterations(1)->Repetitions(2);
 
 // Set-up alone: MoM solve of the doublet and its antenna-frame maps.
 void BM_PlaceDemoSetup(benchmark::State& state) {
