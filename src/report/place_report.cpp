@@ -141,7 +141,10 @@ std::string place_text(const station::Station& st, const station::PlaceInput& in
   auto row = [&](const std::string& rank, const siting::Candidate& c) {
     o << fmt::format("{:>3} {:>8.1f} {:>8.1f} {:>5.0f}° {:>8.1f} {:>8.2f} {:>10} {:<6} {}\n", rank, c.x_m, c.y_m,
                      deg(c.azimuth_rad), c.feedline_length_m, c.feedline_loss_db, watts(c.permitted_pep_w),
-                     c.clearance_ok ? "pass" : "FAIL", c.binding.text);
+                     c.clearance_ok ? "pass" : "FAIL",
+                     c.binding.text + (c.not_evaluated_places > 0
+                                           ? fmt::format(" [{} places not evaluated]", c.not_evaluated_places)
+                                           : std::string()));
   };
   for (std::size_t k = 0; k < r.candidates.size(); ++k) row(std::to_string(k + 1), r.candidates[k]);
   o << "\n";

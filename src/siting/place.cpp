@@ -523,6 +523,15 @@ PlaceResult place(const PlaceSetup& s) {
     if (!dup) az.push_back(v);
   }
   std::sort(az.begin(), az.end());
+  // An antenna whose wires all stand on its feed point in plan (a vertical) is the same at every
+  // azimuth: one is searched.
+  bool point_like = true;
+  for (const auto& [a, b] : s.footprint) point_like &= (a - s.origin).norm() < 1e-3 && (b - s.origin).norm() < 1e-3;
+  if (point_like && !az.empty()) {
+    az = {s.azimuth0_rad};
+    res.notes.push_back("the antenna looks the same from every azimuth in plan (its wires stand on the feed point): "
+                        "one azimuth is searched");
+  }
   res.azimuths_rad = az;
   int nx = 0, ny = 0;
   exposure::PlanPoint org;

@@ -10,7 +10,8 @@
 //  - a support inside its fall zone (US CPSC: 1.5 × height, from memory, verify against CPSC
 //    "Antenna safety" guidance; the rule `standoff lines` applies) is never ranked as clear;
 //  - 300 Ω lines over a long run: matched loss against the closed form from geometry (two-wire line
-//    R′ = Rs/(πa) per conductor with Rs = √(πfμ0/σ), α = R′_total/(2Z0); Ramo, Whinnery & Van Duzer,
+//    R′ = Rs/(πa) for the pair (Rs/(2πa) per conductor) with Rs = √(πfμ0/σ), α = R′/(2Z0) (Pozar,
+//    Microwave Engineering, Table 2.1, two-wire line; Ramo, Whinnery & Van Duzer,
 //    Fields and Waves in Communication Electronics, 3rd ed., Table 5.11, from memory, verify) and
 //    total loss with mismatch against the handbook equation
 //    L = 10·log10[(a² − |Γ|²)/(a(1 − |Γ|²))] (REFERENCES.md §5; Pozar §2.7) at SWR 1.5, 3 and 10.
@@ -160,7 +161,7 @@ TEST_CASE("moving the antenna away from every zone never lowers the permitted po
   std::string text = site(R"(
 [[zone]]
 name = "neighbour"
-polygon = [["30 m", "-40 m"], ["70 m", "-40 m"], ["70 m", "70 m"], ["30 m", "70 m"]]
+polygon = [["30 m", "-10 m"], ["45 m", "-10 m"], ["45 m", "40 m"], ["30 m", "40 m"]]
 tier = "uncontrolled"
 )", "");
   const auto st0 = station::load_station(text, "place-test.toml");

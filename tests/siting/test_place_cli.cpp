@@ -132,3 +132,13 @@ TEST_CASE("[station] operating_position: plan or 3-D point, errors name file:lin
     }
   }
 }
+
+TEST_CASE("place: the same result with 1 and 2 threads", "[place][cli]") {
+  const std::vector<std::string> base{"place", kExample, "--step", "4 m", "--azimuth-step", "30 deg", "--json"};
+  auto one = base, two = base;
+  one.insert(one.end(), {"--threads", "1"});
+  two.insert(two.end(), {"--threads", "2"});
+  const auto a = run_cli(one), b = run_cli(two);
+  REQUIRE(a.code == 0);
+  CHECK(a.out == b.out);
+}
