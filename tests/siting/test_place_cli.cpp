@@ -11,6 +11,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli_support.hpp"
+#include "../report/xml_check.hpp"
 #include "core/error.hpp"
 #include "station/station_toml.hpp"
 
@@ -71,6 +72,11 @@ TEST_CASE("place --line compares another feed line; --out writes the heat map", 
   ss << svg.rdbuf();
   CHECK(ss.str().find("id=\"place-heatmap\"") != std::string::npos);
   CHECK(ss.str().find("id=\"place-current\"") != std::string::npos);
+  // Well-formed XML (W3C XML 1.0, the strict checker of the report tests).
+  const auto problem = standoff::report::test::xml_well_formed(ss.str());
+  CHECK_FALSE(problem);
+  const auto j = nlohmann::json::parse(std::ifstream(dir / "place.json"));
+  CHECK(j["candidates"].size() == 10);
   fs::remove_all(dir);
 }
 
