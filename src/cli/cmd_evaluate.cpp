@@ -15,6 +15,8 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.hpp"
+#include "cli/place_command.hpp"
+#include "report/place_report.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
 #include "limits/limits_toml.hpp"
@@ -40,6 +42,7 @@ struct EvalOptions {
   std::string units;  // metric | imperial | both (default: both for fcc, metric otherwise)
   std::string standard;
   unsigned threads = 0;
+  bool place = false;  // evaluate --place: add the placement search to the report (issue 10)
 };
 
 report::UnitSystem units_option(const std::string& s, limits::Standard standard) {
@@ -162,6 +165,19 @@ std::function<void(double)> progress_for(std::ostream& err, bool json) {
   };
 }
 
+// `evaluate --place`: the default placement search (first wire antenna, 1 m, every 15°).
+report::Record::Placement placement_for_report(const station::Station& st, std::optional<limits::Standard> standard,
+                                               unsigned threads, std::ostream& err, bool json) {
+  station::PlaceOptions po;
+  po.standard = standard;
+  po.threads = threads;
+  for (int k = 0; k < 24; ++k) po.azimuths_rad.push_back(k * 3.14159265358979323846 / 12.0);
+  station::PlaceInput in = station::place_input(st, po);
+  in.setup.progress = place_progress(err, json);
+  const siting::PlaceResult res = siting::place(in.setup);
+  return {report::place_html_section(st, in, res), report::place_heatmap_svg(st, in, res, true)};
+}
+
 int run_evaluation(const EvalOptions& o, std::string_view text, const std::string& input_name,
                    const std::string& file_for_messages, std::ostream& out, std::ostream& err) {
   (void)units_option(o.units, limits::Standard::fcc);  // a bad --units is refused before any work
@@ -195,6 +211,7 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.references = report::default_references();
   rec.evaluation = std::move(ev);
   rec.cautions = report::all_cautions(rec);
+  if (o.place) rec.placement = placement_for_report(st, bo.standard, o.threads, err, o.json);
 
   // Write the report files first (all or nothing), then print. A bare `--out` writes to the
   // default directory reports/<station-name>/ (issue 7).
@@ -324,6 +341,8 @@ void add_evaluate(CLI::App& root, Commands& commands) {
     CLI::App* sub = root.add_subcommand("evaluate", "Evaluate a whole station on its site (exposure and installation)");
     sub->add_option("station", o->station_file, "Station file (TOML)")->required();
     common_options(sub, o);
+    sub->add_flag("--place", o->place, "Also search the site for the first wire antenna's best position (heat map "
+                                       "and ranking in the HTML report)");
     commands.push_back({sub, [o](std::ostream& out, std::ostream& err) {
                           const std::string text = read_file(o->station_file);
                           return run_evaluation(*o, text, o->station_file, o->station_file, out, err);

@@ -29,5 +29,6 @@ void add_distance(CLI::App& root, Commands& commands);
 void add_wire(CLI::App& root, Commands& commands);
 void add_evaluate(CLI::App& root, Commands& commands);  // also `demo` and `field`
 void add_lines(CLI::App& root, Commands& commands);
+void add_place(CLI::App& root, Commands& commands);
 
 }  // namespace standoff::cli

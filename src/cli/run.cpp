@@ -18,6 +18,7 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   add_wire(app, commands);
   add_evaluate(app, commands);
   add_lines(app, commands);
+  add_place(app, commands);
 
   std::vector<std::string> reversed(args.rbegin(), args.rend());
   try {

@@ -212,7 +212,7 @@ FeedLineTable load_feedline_table(std::string_view text, const std::string& file
       const auto& t = *(*arr)[i].as_table();
       Ctx ctx{file, "parallel_wire[" + std::to_string(i) + "]", line_of(t, 0)};
       check_keys(t, ctx, {"name", "description", "conductor_diameter", "spacing", "velocity_factor", "material",
-                          "cladding_fraction"});
+                          "cladding_fraction", "source"});
       ParallelWireGeometry g;
       const auto name = get_string(require(t, ctx, "name"), ctx, "name");
       check_name(name, ctx);
@@ -240,6 +240,11 @@ FeedLineTable load_feedline_table(std::string_view text, const std::string& file
       }
       FeedLine l = parallel_wire_line(name, g);
       l.description = opt_string(t, ctx, "description");
+      // Optional provenance of the geometry; a geometry recalled from memory is marked "verify".
+      if (const std::string geometry_source = opt_string(t, ctx, "source"); !geometry_source.empty()) {
+        l.source += "; " + geometry_source;
+        if (geometry_source.find("from memory") != std::string::npos) l.confidence = "verify";
+      }
       l.source_line = ctx.line;
       table.lines.push_back(std::move(l));
     }

@@ -306,8 +306,7 @@ std::string to_html(const Record& r) {
   }
   h += "</section>\n";
 
-  // Extra sections of other subcommand options (e.g. a placement search) go here, between the
-  // installation checks and the methods: append them to `h` as <section id="..."> elements.
+  if (r.placement) h += r.placement->html_section;  // issue 10: `evaluate --place`
 
   h += "<section id=\"cautions\"><h2>Cautions</h2>\n<div class=\"cautions\"><ul>\n";
   for (const auto& c : all_cautions(r)) h += "<li><strong>Caution:</strong> " + esc(c) + "</li>\n";

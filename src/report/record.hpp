@@ -152,6 +152,13 @@ struct Record {
   std::vector<std::string> cautions;
   std::vector<Remedy> remedies;
   UnitSystem units = UnitSystem::both;
+  // Placement search (`evaluate --place`, issue 10): a self-contained HTML section and the heat
+  // map file, built by report/place_report.cpp; absent unless asked for.
+  struct Placement {
+    std::string html_section;
+    std::string heatmap_svg;  // written as place-heatmap.svg
+  };
+  std::optional<Placement> placement;
 };
 
 // ---- Helpers shared by the writers ----

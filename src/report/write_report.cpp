@@ -21,6 +21,7 @@ std::vector<std::pair<std::string, std::string>> report_files(const Record& r) {
   files.emplace_back("report.md", to_markdown(r));
   files.emplace_back("report.json", to_json(r).dump(2) + "\n");
   files.emplace_back("site-map.svg", site_map_svg(r, true));
+  if (r.placement) files.emplace_back("place-heatmap.svg", r.placement->heatmap_svg);
   std::set<std::string> seen;
   for (const auto& op : r.evaluation.operations) {
     if (op.ratio_vs_distance.empty()) continue;

@@ -352,6 +352,8 @@ Built build(const Station& st, const BuildOptions& options) {
     in.sources.push_back(std::move(src));
     in.limits.push_back(lim);
     out.wires.push_back(std::move(wires));
+    out.details.push_back({solution, {chain_c.average_at_transmitter.value(), chain_u.average_at_transmitter.value()},
+                           ci.line});
   }
   if (!found)
     throw InputError(Where{"command line", 0, "--operation"},

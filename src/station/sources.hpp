@@ -11,6 +11,7 @@
 #include "em/solve.hpp"
 #include "exposure/evaluate.hpp"
 #include "limits/limits.hpp"
+#include "power/chain.hpp"
 #include "station/station.hpp"
 
 namespace standoff::station {
@@ -27,6 +28,15 @@ struct Built {
   const limits::LimitTable* table = nullptr;
   // Per source: the wires drawn on the map (site frame), empty for screening antennas.
   std::vector<std::vector<std::pair<Eigen::Vector3d, Eigen::Vector3d>>> wires;
+  // Per source, for the placement search (issue 10): the MoM solution (null for screening
+  // antennas), the average power at the transmitter in each tier's window ([0] controlled,
+  // [1] uncontrolled) and the feed line as built (absent: fed without a line).
+  struct SourceDetail {
+    std::shared_ptr<const em::Solution> solution;
+    double tx_average_w[2] = {0.0, 0.0};
+    std::optional<power::LineSpec> line;
+  };
+  std::vector<SourceDetail> details;
 };
 
 // Throws InputError naming the station file, line and field for anything the tables or the antenna

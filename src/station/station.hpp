@@ -117,6 +117,9 @@ struct Station {
   std::string name;
   std::optional<limits::Standard> standard;
   std::string evaluator;
+  // [station] operating_position: where the transmitter stands (feed-line routing for placement).
+  std::optional<Point3> operating_position;
+  int operating_position_line = 0;
   Site site;
   std::vector<Transmitter> transmitters;
   std::vector<FeedLine> feed_lines;

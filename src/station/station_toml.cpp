@@ -341,7 +341,7 @@ Station load_station(std::string_view toml_text, const std::string& file) {
   const toml::table* station_t = root["station"].as_table();
   if (!station_t) throw InputError(Where{file, 1, "station"}, "missing the [station] table");
   {
-    Reader r(*station_t, file, "station", {"name", "standard", "evaluator"});
+    Reader r(*station_t, file, "station", {"name", "standard", "evaluator", "operating_position"});
     st.name = r.name();
     if (auto s = r.opt_string("standard")) {
       auto id = limits::standard_from_string(*s);
@@ -350,6 +350,19 @@ Station load_station(std::string_view toml_text, const std::string& file) {
       st.standard = *id;
     }
     st.evaluator = r.opt_string("evaluator").value_or("");
+    // Where the transmitter stands (feed-line routing of `standoff place`): [x, y] or [x, y, z].
+    if (const toml::node* n = r.node("operating_position")) {
+      const auto* a = n->as_array();
+      if (a && a->size() == 2) {
+        const PlanPoint p = plan_point(*n, r.where("operating_position"));
+        st.operating_position = Point3{p.x_m, p.y_m, 0.0};
+      } else {
+        st.operating_position = point3(*n, r.where("operating_position"));
+      }
+      if (st.operating_position->z_m < 0.0)
+        throw InputError(r.where("operating_position"), "the operating position is below ground");
+      st.operating_position_line = r.where("operating_position").line;
+    }
   }
 
   // [site]
