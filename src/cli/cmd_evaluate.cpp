@@ -2,7 +2,9 @@
 // (issue 5). The CLI reads the file, calls the core, builds the record and hands it to the writers.
 #include <unistd.h>
 
+#include <cerrno>
 #include <cmath>
+#include <cstring>
 #include <filesystem>
 #include <fstream>
 #include <iostream>
@@ -15,6 +17,8 @@
 #include "cli/command.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
+#include "exposure/work_estimate.hpp"
+#include "report/finite_check.hpp"
 #include "limits/limits_toml.hpp"
 #include "report/record.hpp"
 #include "report/sha256.hpp"
@@ -34,8 +38,28 @@ struct EvalOptions {
   const CLI::Option* out_option = nullptr;  // given as bare `--out`: write to reports/<station-name>/
   bool json = false;
   std::string standard;
+  const CLI::Option* standard_option = nullptr;
   unsigned threads = 0;
+  std::size_t max_unknowns = em::kMaxUnknowns;
+  double max_grid_cells = exposure::kDefaultMaxGridCells;
 };
+
+// `--out DIR` is checked before the evaluation starts (issue 14): not empty, not a file, and in a
+// directory that can be written (the nearest existing ancestor when DIR does not exist yet).
+void check_out_dir(const std::string& dir) {
+  namespace fs = std::filesystem;
+  const Where w = option_where("--out");
+  if (dir.empty()) throw InputError(w, "must not be empty (give a directory, or `--out` alone for reports/<station-name>/)");
+  std::error_code ec;
+  fs::path p(dir);
+  if (fs::exists(p, ec) && !fs::is_directory(p, ec)) throw InputError(w, "\"" + dir + "\" exists and is not a directory");
+  fs::path probe = p;
+  while (!probe.empty() && !fs::exists(probe, ec)) probe = probe.parent_path();
+  if (probe.empty()) probe = ".";
+  if (!fs::is_directory(probe, ec)) throw InputError(w, "\"" + probe.string() + "\" is not a directory");
+  if (::access(probe.c_str(), W_OK | X_OK) != 0)
+    throw InputError(w, "cannot write into \"" + probe.string() + "\": " + std::strerror(errno));
+}
 
 std::string read_file(const std::string& path) {
   std::ifstream in(path, std::ios::binary);
@@ -144,14 +168,29 @@ std::function<void(double)> progress_for(std::ostream& err, bool json) {
 
 int run_evaluation(const EvalOptions& o, std::string_view text, const std::string& input_name,
                    const std::string& file_for_messages, std::ostream& out, std::ostream& err) {
+  if (o.standard_option != nullptr && o.standard_option->count() > 0 && o.standard.empty())
+    throw InputError(option_where("--standard"), "must not be empty: expected fcc, icnirp2020, icnirp1998 or sc6");
+  const auto standard = standard_option(o.standard);
+  const bool out_given = o.out_option != nullptr && o.out_option->count() > 0;
+  const bool out_bare = out_given && o.out_option->results().empty();
+  if (out_given && !out_bare) check_out_dir(o.out_dir);
   const station::Station st = station::load_station(text, file_for_messages);
+  if (out_bare) check_out_dir("reports/" + report::slug(st.name));
   station::BuildOptions bo;
-  bo.standard = standard_option(o.standard);
+  bo.standard = standard;
+  bo.max_unknowns = o.max_unknowns;
   const station::Built built = station::build(st, bo);
 
   exposure::EvaluationOptions eo;
   eo.threads = o.threads;
   eo.progress = progress_for(err, o.json);
+  // Work estimated before any grid is allocated (issue 14).
+  const double cells = exposure::estimated_grid_cells(built.input, eo.grid_spacing_m);
+  if (cells > o.max_grid_cells)
+    throw InputError(Where{file_for_messages, 0, "zone"},
+                     fmt::format("the zones need about {:.3g} grid cells at {:.3g} m spacing, more than the cap of "
+                                 "{:.3g} (raise it with --max-grid-cells, or split the zones)",
+                                 cells, eo.grid_spacing_m, o.max_grid_cells));
   exposure::StationEvaluation ev = exposure::evaluate(built.input, eo);
 
   report::Record rec;
@@ -172,12 +211,13 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.references = report::default_references();
   rec.evaluation = std::move(ev);
   rec.cautions = report::all_cautions(rec);
+  // Every number of the record is finite, or the run fails as an internal error (exit 3).
+  report::check_finite(report::to_json(rec), "evaluation record");
 
   // Write the report files first (all or nothing), then print. A bare `--out` writes to the
   // default directory reports/<station-name>/ (issue 7).
   std::string out_dir = o.out_dir;
-  if (out_dir.empty() && o.out_option != nullptr && o.out_option->count() > 0)
-    out_dir = "reports/" + report::slug(st.name);
+  if (out_bare) out_dir = "reports/" + report::slug(st.name);
   if (!out_dir.empty()) report::write_report(rec, out_dir);
   if (o.json) {
     out << report::to_json(rec).dump(2) << "\n";
@@ -197,9 +237,13 @@ void common_options(CLI::App* sub, const std::shared_ptr<EvalOptions>& o) {
                                   "`--out` alone writes to reports/<station-name>/")
                        ->expected(0, 1);
   sub->add_flag("--json", o->json, "Print the evaluation record as JSON");
-  sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
+  o->standard_option = sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
   sub->add_option("--threads", o->threads, "Worker threads for the grid (default: all cores)")
       ->check(CLI::Range(1u, 256u));
+  sub->add_option("--max-unknowns", o->max_unknowns, "Cap on moment-method unknowns per antenna (default 4000; 16 N² bytes)")
+      ->check(CLI::Range(std::size_t{1}, std::size_t{20000}));
+  sub->add_option("--max-grid-cells", o->max_grid_cells, "Cap on zone grid cells over all zones and floors (default 4e6)")
+      ->check(CLI::Range(1.0, 1e9));
 }
 
 struct FieldOptions {

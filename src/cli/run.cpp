@@ -4,6 +4,7 @@
 #include <ostream>
 
 #include "cli/command.hpp"
+#include "core/error_list.hpp"
 
 namespace standoff::cli {
 
@@ -29,6 +30,12 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
     if (!c.app->parsed()) continue;
     try {
       return c.handler(out, err);
+    } catch (const InputErrors& e) {
+      // One error style across commands: "standoff: error: file:line: field: message", one a line.
+      for (const auto& x : e.all()) err << "standoff: error: " << x.what() << "\n";
+      err << "standoff: " << e.all().size() << " errors"
+          << (e.all().size() >= kMaxErrors ? " (stopped at " + std::to_string(kMaxErrors) + ")" : std::string()) << "\n";
+      return kBadInput;
     } catch (const InputError& e) {
       err << "standoff: error: " << e.what() << "\n";
       return kBadInput;

@@ -10,7 +10,8 @@ namespace {
 using nlohmann::json;
 
 json opt(const std::optional<double>& v) {
-  return (v && std::isfinite(*v)) ? json(*v) : json(nullptr);
+  // A non-finite value is kept so that check_finite (report/finite_check.hpp) refuses it (issue 14).
+  return v ? json(*v) : json(nullptr);
 }
 
 json tier_distances(const exposure::TierDistances& d) {
