@@ -172,7 +172,8 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
     throw InputError(option_where("--standard"), "must not be empty: expected fcc, icnirp2020, icnirp1998 or sc6");
   const auto standard = standard_option(o.standard);
   const bool out_given = o.out_option != nullptr && o.out_option->count() > 0;
-  const bool out_bare = out_given && o.out_option->results().empty();
+  // `--out` alone: CLI11 records an empty value (an explicit `--out ""` is refused by run()).
+  const bool out_bare = out_given && o.out_dir.empty();
   if (out_given && !out_bare) check_out_dir(o.out_dir);
   const station::Station st = station::load_station(text, file_for_messages);
   if (out_bare) check_out_dir("reports/" + report::slug(st.name));

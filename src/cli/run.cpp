@@ -19,6 +19,17 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   add_evaluate(app, commands);
   add_lines(app, commands);
 
+  // An empty argument is never meaningful (`--out ""`, `--standard ""`, `--out=`): refused up
+  // front, naming the option it was given to (issue 14).
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& a = args[i];
+    const bool empty_eq = a.rfind("--", 0) == 0 && !a.empty() && a.back() == '=';
+    if (!a.empty() && !empty_eq) continue;
+    const std::string opt = empty_eq ? a.substr(0, a.size() - 1)
+                            : (i > 0 && args[i - 1].rfind("--", 0) == 0) ? args[i - 1] : std::string("argument " + std::to_string(i + 1));
+    err << "standoff: error: command line: " << opt << ": must not be empty\n";
+    return kBadInput;
+  }
   std::vector<std::string> reversed(args.rbegin(), args.rend());
   try {
     app.parse(reversed);
