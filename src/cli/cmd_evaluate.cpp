@@ -15,6 +15,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.hpp"
+#include "core/bounds.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
 #include "exposure/work_estimate.hpp"
@@ -62,6 +63,8 @@ void check_out_dir(const std::string& dir) {
 }
 
 std::string read_file(const std::string& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
   std::ostringstream ss;
@@ -272,6 +275,7 @@ exposure::SitePoint parse_at(const std::string& text) {
   double v[3];
   for (int i = 0; i < 3; ++i) v[i] = parse_length(parts[static_cast<std::size_t>(i)], option_where("--at"), Sign::any).value();
   if (v[2] < 0.0) throw InputError(option_where("--at"), "the point is below ground");
+  for (double c : v) bounds::length(c, option_where("--at"), true);
   return {v[0], v[1], v[2]};
 }
 

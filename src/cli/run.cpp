@@ -34,8 +34,13 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   try {
     app.parse(reversed);
   } catch (const CLI::ParseError& e) {
-    const int code = app.exit(e, out, err);
-    return code == 0 ? kOk : kBadInput;
+    if (e.get_exit_code() == 0) {
+      app.exit(e, out, err);  // --help
+      return kOk;
+    }
+    // One error style across commands: "standoff: error: command line: ...".
+    err << "standoff: error: command line: " << e.what() << "\nRun with --help for more information.\n";
+    return kBadInput;
   }
   for (const auto& c : commands) {
     if (!c.app->parsed()) continue;

@@ -6,15 +6,20 @@
 namespace standoff {
 
 std::size_t edit_distance(const std::string& a, const std::string& b) {
-  std::vector<std::size_t> prev(b.size() + 1), cur(b.size() + 1);
+  // Optimal string alignment: Levenshtein plus the transposition of two adjacent characters
+  // (Damerau 1964), so "teir" is one edit from "tier".
+  auto eq = [](char x, char y) {
+    return std::tolower(static_cast<unsigned char>(x)) == std::tolower(static_cast<unsigned char>(y));
+  };
+  std::vector<std::size_t> prev2(b.size() + 1), prev(b.size() + 1), cur(b.size() + 1);
   for (std::size_t j = 0; j <= b.size(); ++j) prev[j] = j;
   for (std::size_t i = 1; i <= a.size(); ++i) {
     cur[0] = i;
     for (std::size_t j = 1; j <= b.size(); ++j) {
-      const bool same = std::tolower(static_cast<unsigned char>(a[i - 1])) ==
-                        std::tolower(static_cast<unsigned char>(b[j - 1]));
-      cur[j] = std::min({prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + (same ? 0 : 1)});
+      cur[j] = std::min({prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + (eq(a[i - 1], b[j - 1]) ? 0 : 1)});
+      if (i > 1 && j > 1 && eq(a[i - 1], b[j - 2]) && eq(a[i - 2], b[j - 1])) cur[j] = std::min(cur[j], prev2[j - 2] + 1);
     }
+    prev2 = prev;
     std::swap(prev, cur);
   }
   return prev[b.size()];

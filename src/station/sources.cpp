@@ -262,7 +262,9 @@ Built build(const Station& st, const BuildOptions& options) {
           for (const auto& w : sol->warnings) s.notes.push_back("antenna model: " + w);
           s.solution = std::move(sol);
         } catch (const InputError& e) {
-          const Where wk = where_in(st, "antenna", index_of(st.antennas, &ant), ant.line, antenna_key_for(e));
+          std::string key = antenna_key_for(e);
+          if (ant.kind == AntennaKind::yagi && key == "length") key = "band_centre";  // a Yagi is sized from it
+          const Where wk = where_in(st, "antenna", index_of(st.antennas, &ant), ant.line, key);
           throw InputError(wk, "the antenna cannot be modelled at " + num(f_hz / 1e6) + " MHz: " + e.what());
         }
         it = solved.emplace(key, std::move(s)).first;

@@ -1,5 +1,6 @@
 #include "station/station_toml.hpp"
 
+#include <filesystem>
 #include <fstream>
 #include <set>
 #include <sstream>
@@ -174,7 +175,9 @@ std::vector<double> heights(const Reader& r, const std::string& key) {
 limits::Tier tier(const Reader& r) {
   const std::string s = r.string("tier");
   auto t = limits::tier_from_string(s);
-  if (!t) throw InputError(r.where("tier"), "unknown tier \"" + s + "\": expected controlled or uncontrolled");
+  if (!t)
+    throw InputError(r.where("tier"), "unknown tier \"" + s + "\"" + did_you_mean(s, {"controlled", "uncontrolled"}) +
+                                          ": expected controlled or uncontrolled");
   return *t;
 }
 
@@ -331,6 +334,8 @@ std::string_view demo_station_text() {
 }
 
 Station load_station_file(const std::string& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
   std::ostringstream ss;
@@ -339,6 +344,8 @@ Station load_station_file(const std::string& path) {
 }
 
 Station load_station(std::string_view toml_text, const std::string& file) {
+  if (toml_text.find_first_not_of(" \t\r\n") == std::string_view::npos)
+    throw InputError(Where{file, 0, ""}, "the station file is empty");
   toml::table root;
   try {
     root = toml::parse(toml_text, file);
@@ -375,7 +382,9 @@ Station load_station(std::string_view toml_text, const std::string& file) {
     if (auto s = r.opt_string("standard")) {
       auto id = limits::standard_from_string(*s);
       if (!id)
-        throw InputError(r.where("standard"), "unknown standard \"" + *s + "\": expected fcc, icnirp2020, icnirp1998 or sc6");
+        throw InputError(r.where("standard"), "unknown standard \"" + *s + "\"" +
+                                                  did_you_mean(*s, {"fcc", "icnirp2020", "icnirp1998", "sc6"}) +
+                                                  ": expected fcc, icnirp2020, icnirp1998 or sc6");
       st.standard = *id;
     }
     st.evaluator = r.opt_string("evaluator").value_or("");
@@ -390,7 +399,9 @@ Station load_station(std::string_view toml_text, const std::string& file) {
       auto k = ground_kind(*g);
       if (!k)
         throw InputError(r.where("ground"),
-                         "unknown ground \"" + *g + "\": expected free_space, perfect, average, poor, good or sea_water");
+                         "unknown ground \"" + *g + "\"" +
+                             did_you_mean(*g, {"free_space", "perfect", "average", "poor", "good", "sea_water"}) +
+                             ": expected free_space, perfect, average, poor, good or sea_water");
       st.site.ground = *k;
     }
     st.site.boundary = polygon(r, "boundary");
