@@ -3,7 +3,7 @@
 # corpus (tests/data/bad/cases.toml applied to the demo station), the examples and the tables.
 # Exits non-zero on any crash, leak or sanitizer report. Usage: run_fuzz.sh BUILD_DIR [SECONDS]
 set -euo pipefail
-build=${1:?usage: run_fuzz.sh BUILD_DIR [SECONDS]}
+build=$(cd "${1:?usage: run_fuzz.sh BUILD_DIR [SECONDS]}" && pwd)
 seconds=${2:-60}
 src=$(cd "$(dirname "$0")/../.." && pwd)
 work=$(mktemp -d)
