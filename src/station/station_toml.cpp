@@ -147,6 +147,11 @@ Polygon polygon(const Reader& r, const std::string& key) {
   const Where w = r.where(key);
   const auto* a = n->as_array();
   if (!a) throw InputError(w, "expected a polygon: an array of plan points [[\"x m\", \"y m\"], ...]");
+  // Work estimated before it is done (issue 14): the self-intersection check is O(n²).
+  constexpr std::size_t kMaxPolygonVertices = 10000;
+  if (a->size() > kMaxPolygonVertices)
+    throw InputError(w, "a polygon of " + std::to_string(a->size()) + " vertices is more than the cap of " +
+                            std::to_string(kMaxPolygonVertices) + ": simplify it or split the zone");
   Polygon poly;
   for (const auto& v : *a) poly.push_back(plan_point(v, Where{w.file, line_of(v), w.field}));
   if (poly.size() < 3) throw InputError(w, "a polygon needs at least 3 vertices");

@@ -18,7 +18,7 @@ src, out = pathlib.Path(sys.argv[1]), pathlib.Path(sys.argv[2])
 demo = (src / "docs/examples/demo-station.toml").read_text()
 cases = tomllib.loads((src / "tests/data/bad/cases.toml").read_text())
 for i, c in enumerate(cases.get("station", [])):
-    (out / f"case-{i:03d}.toml").write_text(demo.replace(c["find"], c["replace"], 1))
+    (out / f"case-{i:03d}.toml").write_text(demo.replace(c["find"], c.get("replace", ""), 1))
 PY
 cp "$src"/tables/*.toml "$work/tables/"
 grep -oh '"[^"]*"' "$src"/docs/examples/*.toml "$src"/tests/data/bad/cases.toml | tr -d '"' | sort -u |

@@ -3,6 +3,8 @@
 // line, "standoff: error: FILE:LINE: FIELD: message" (common practice (no source): one error style).
 #include <unistd.h>
 
+#include <cmath>
+#include <cstdint>
 #include <filesystem>
 #include <fstream>
 #include <set>
@@ -40,6 +42,17 @@ std::string replace_first(std::string text, const std::string& find, const std::
   const auto at = text.find(find);
   REQUIRE(at != std::string::npos);  // the case must still match the demo station
   return text.replace(at, find.size(), with);
+}
+
+// A polygon of n vertices on a circle of 10 m around (20 m, 35 m), as station-file text.
+std::string circle(std::int64_t n) {
+  std::string s = "[";
+  for (std::int64_t k = 0; k < n; ++k) {
+    const double a = 2.0 * 3.14159265358979323846 * static_cast<double>(k) / static_cast<double>(n);
+    s += (k ? ", " : "") + ("[\"" + std::to_string(20.0 + 10.0 * std::cos(a)) + " m\", \"" +
+                            std::to_string(35.0 + 10.0 * std::sin(a)) + " m\"]");
+  }
+  return s + "]";
 }
 
 // "standoff: error: FILE[:LINE][: FIELD]: " as core/error.cpp composes it.
@@ -100,7 +113,9 @@ TEST_CASE("bad-input corpus: every case is refused with its exit code, file, lin
     const toml::table& c = *node.as_table();
     const std::string name = c["name"].value_or("");
     DYNAMIC_SECTION("station case " << name) {
-      std::string text = replace_first(demo, c["find"].value_or(""), c["replace"].value_or(""));
+      std::string replacement = c["replace"].value_or("");
+      if (auto n = c["replace_circle"].value<int64_t>()) replacement = "polygon = " + circle(*n);
+      std::string text = replace_first(demo, c["find"].value_or(""), replacement);
       if (auto f2 = c["find2"].value<std::string>()) text = replace_first(text, *f2, c["replace2"].value_or(""));
       const fs::path file = dirs.root / (name + ".toml");
       write(file, text);
