@@ -2,6 +2,7 @@
 // (issue 5). The CLI reads the file, calls the core, builds the record and hands it to the writers.
 #include <unistd.h>
 
+#include <algorithm>
 #include <cerrno>
 #include <cmath>
 #include <cstring>
@@ -190,11 +191,17 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   eo.progress = progress_for(err, o.json);
   // Work estimated before any grid is allocated (issue 14).
   const double cells = exposure::estimated_grid_cells(built.input, eo.grid_spacing_m);
-  if (cells > o.max_grid_cells)
-    throw InputError(Where{file_for_messages, 0, "zone"},
-                     fmt::format("the zones need about {:.3g} grid cells at {:.3g} m spacing, more than the cap of "
-                                 "{:.3g} (raise it with --max-grid-cells, or split the zones)",
-                                 cells, eo.grid_spacing_m, o.max_grid_cells));
+  if (cells > o.max_grid_cells) {
+    // Named by the largest zone (zones are built in the station's order).
+    const auto per_zone = exposure::estimated_grid_cells_per_zone(built.input, eo.grid_spacing_m);
+    const std::size_t big = static_cast<std::size_t>(std::max_element(per_zone.begin(), per_zone.end()) - per_zone.begin());
+    const Where w = big < st.site.zones.size()
+                        ? Where{file_for_messages, st.site.zones[big].line, "zone[" + std::to_string(big) + "]"}
+                        : Where{file_for_messages, 0, "zone"};
+    throw InputError(w, fmt::format("the zones need about {:.3g} grid cells at {:.3g} m spacing ({:.3g} in this one), "
+                                    "more than the cap of {:.3g} (raise it with --max-grid-cells, or split the zones)",
+                                    cells, eo.grid_spacing_m, per_zone[big], o.max_grid_cells));
+  }
   exposure::StationEvaluation ev = exposure::evaluate(built.input, eo);
 
   report::Record rec;
@@ -329,6 +336,7 @@ int run_field(const FieldOptions& o, std::ostream& out) {
   j["note"] = "ratios are the power ratio to the limit of each tier (100 % = at the limit), at this point only "
               "(no body averaging), each tier at its own averaging time";
   if (o.json) {
+    report::check_finite(j, "field result");
     out << j.dump(2) << "\n";
   } else {
     out << text_out.str();

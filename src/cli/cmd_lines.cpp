@@ -7,6 +7,7 @@
 
 #include <toml++/toml.h>
 
+#include "report/finite_check.hpp"
 #include "cli/command.hpp"
 #include "siting/checks.hpp"
 #include "siting/clearances_toml.hpp"
@@ -45,10 +46,13 @@ void add_lines(CLI::App& root, Commands& commands) {
     const toml::table root = read_toml_file(o->station);
     const auto site = siting::parse_site_elements(root, o->station);
     const auto report = siting::run_checks(site, siting::builtin_clearance_tables());
-    if (o->json)
-      out << siting::lines_report_json(report).dump(2) << "\n";
-    else
+    if (o->json) {
+      const auto j = siting::lines_report_json(report);
+      standoff::report::check_finite(j, "lines result");  // no NaN or inf reaches the output (issue 14)
+      out << j.dump(2) << "\n";
+    } else {
       out << siting::lines_report_text(report);
+    }
     return report.all_pass() ? kOk : kExceeds;
   }});
 }

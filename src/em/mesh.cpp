@@ -99,7 +99,7 @@ Mesh build_mesh(const Model& model, double max_segment_wavelengths, std::size_t 
     const double n_auto = std::ceil(len / (max_segment_wavelengths * lambda) - 1e-9);
     const double n_est = n > 0 ? double(n) : n_auto;
     if (!(double(mesh.segments.size()) + n_est <= double(max_unknowns) + double(nw)))
-      fail("segments", "the antenna needs about " + std::to_string(static_cast<long long>(std::min(
+      fail(name, "the antenna needs about " + std::to_string(static_cast<long long>(std::min(
                            double(mesh.segments.size()) + n_est, 9e18))) +
                            " segments (wire length " + fmt_m(len) + "), more than the cap of " +
                            std::to_string(max_unknowns) + " unknowns (16 N^2 bytes of matrix memory; raise it with "

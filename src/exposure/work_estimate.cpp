@@ -7,7 +7,14 @@ namespace standoff::exposure {
 
 double estimated_grid_cells(const EvaluationInput& input, double spacing_m) {
   double total = 0.0;
+  for (double n : estimated_grid_cells_per_zone(input, spacing_m)) total += n;
+  return total;
+}
+
+std::vector<double> estimated_grid_cells_per_zone(const EvaluationInput& input, double spacing_m) {
+  std::vector<double> out;
   for (const auto& z : input.zones) {
+    out.push_back(0.0);
     if (z.polygon.empty()) continue;
     double x0 = z.polygon.front().x_m, x1 = x0, y0 = z.polygon.front().y_m, y1 = y0;
     for (const auto& p : z.polygon) {
@@ -18,9 +25,9 @@ double estimated_grid_cells(const EvaluationInput& input, double spacing_m) {
     }
     const double nx = std::max(1.0, std::ceil((x1 - x0) / spacing_m - 1e-9));
     const double ny = std::max(1.0, std::ceil((y1 - y0) / spacing_m - 1e-9));
-    total += nx * ny * static_cast<double>(std::max<std::size_t>(1, z.floors_m.size()));
+    out.back() = nx * ny * static_cast<double>(std::max<std::size_t>(1, z.floors_m.size()));
   }
-  return total;
+  return out;
 }
 
 }  // namespace standoff::exposure

@@ -3,6 +3,7 @@
 #pragma once
 
 #include <cstddef>
+#include <vector>
 
 #include "exposure/evaluate.hpp"
 
@@ -17,5 +18,7 @@ inline constexpr double kDefaultMaxGridCells = 4e6;
 // zone's bounding box at `spacing_m` (an upper bound of the cells inside the zone), in double
 // precision so that huge zones cannot overflow.
 double estimated_grid_cells(const EvaluationInput& input, double spacing_m);
+// The same, zone by zone (all floors), in the order of input.zones.
+std::vector<double> estimated_grid_cells_per_zone(const EvaluationInput& input, double spacing_m);
 
 }  // namespace standoff::exposure

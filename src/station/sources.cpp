@@ -133,7 +133,7 @@ std::string antenna_key_for(const InputError& e) {
   if (has("ground")) return "height";
   if (f == "droop") return "apex_angle";
   if (f == "frequency") return "band_centre";
-  if (f == "length" || f == "segments" || has("lambda/10") || has("zero-length")) return "length";
+  if (f == "length" || f == "segments" || has("segments") || has("zero-length")) return "length";
   return "kind";
 }
 
