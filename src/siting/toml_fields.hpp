@@ -46,7 +46,8 @@ class Fields {
     const auto* n = get(key);
     if (!n) missing(key);
     if (!n->is_string()) throw InputError(where(key), "expected a string");
-    return std::string(*n->value<std::string_view>());
+    // Control characters escaped (issue 14): a name can never fake a line of the output.
+    return printable(std::string(*n->value<std::string_view>()));
   }
 
   std::optional<std::string> opt_string(std::string_view key) const {
