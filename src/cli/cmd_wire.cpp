@@ -245,7 +245,7 @@ void print_text(std::ostream& out, const Result& r) {
       << (r.resonant_length ? " (trimmed to resonance)" : "") << "\n";
   out << "  feed impedance " << sig(r.z.real(), 4) << (r.z.imag() < 0 ? " - j" : " + j") << sig(std::abs(r.z.imag()), 4)
       << " ohm\n";
-  out << "  SWR " << (std::isfinite(r.swr) ? sig(r.swr, 3) : std::string("inf")) << " on " << sig(r.z0, 4) << " ohm";
+  out << "  SWR " << (std::isfinite(r.swr) ? sig(r.swr, 3) : std::string("not evaluated (the load reflects all power)")) << " on " << sig(r.z0, 4) << " ohm";
   if (r.line) {
     out << " (" << r.line->name << ")";
     if (r.line->evaluated)
