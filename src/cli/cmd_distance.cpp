@@ -14,7 +14,9 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.hpp"
+#include "core/bounds.hpp"
 #include "core/constants.hpp"
+#include "core/suggest.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/aperture.hpp"
 #include "exposure/exemption.hpp"
@@ -23,6 +25,7 @@
 #include "limits/limits_toml.hpp"
 #include "power/chain.hpp"
 #include "power/power_tables_toml.hpp"
+#include "report/finite_check.hpp"
 
 namespace standoff::cli {
 namespace {
@@ -151,6 +154,7 @@ std::optional<power::LineSpec> build_line(const DistanceOptions& o) {
   if (o.line_length.empty()) throw InputError(option_where("--line-length"), "--line needs --line-length");
   power::LineSpec spec;
   spec.length = parse_length(o.line_length, option_where("--line-length"));
+  bounds::length(spec.length.value(), option_where("--line-length"));
   if (o.line == "user") {
     if (o.line_z0.empty() || o.line_loss.empty() || o.line_loss_freq.empty())
       throw InputError(option_where("--line"), "--line user needs --line-z0, --line-loss and --line-loss-freq");
@@ -185,7 +189,9 @@ std::optional<power::LineSpec> build_line(const DistanceOptions& o) {
     const auto& table = power::builtin_feedline_table();
     const auto* l = table.find(o.line);
     if (!l)
-      throw InputError(option_where("--line"), "unknown line class \"" + o.line + "\"; expected one of: " +
+      throw InputError(option_where("--line"), "unknown line class \"" + o.line + "\"" +
+                                                   did_you_mean(o.line, split_names(table.names() + ", parallel, user")) +
+                                                   "; expected one of: " +
                                                    table.names() + ", parallel, user");
     spec.line = *l;
   }
@@ -195,6 +201,7 @@ std::optional<power::LineSpec> build_line(const DistanceOptions& o) {
     const double s = std::strtod(o.swr.c_str(), &end);
     if (end != o.swr.c_str() + o.swr.size() || !std::isfinite(s) || s < 1.0)
       throw InputError(option_where("--swr"), "expected an SWR of 1 or more (a plain ratio such as 2.5), got \"" + o.swr + "\"");
+    bounds::swr(s, option_where("--swr"));
     spec.load = power::LoadSpec::from_swr(s);
   } else if (!o.load.empty()) {
     spec.load = power::LoadSpec::from_impedance(parse_complex_impedance(o.load, option_where("--load")));
@@ -251,11 +258,14 @@ void add_distance(CLI::App& root, Commands& commands) {
   commands.push_back({sub, [o](std::ostream& out, std::ostream&) -> int {
     // ---- inputs, all validated before anything is printed
     const auto f = parse_frequency(o->freq, option_where("--freq"));
+    bounds::frequency(f.value(), option_where("--freq"));
     const auto pep = parse_power(o->power, option_where("--power"));
+    bounds::power_pep(pep.value(), option_where("--power"));
     std::optional<exposure::Aperture> dish;
     if (!o->dish.empty()) {
       exposure::Aperture a;
       a.diameter = parse_length(o->dish, option_where("--dish"));
+      bounds::length(a.diameter.value(), option_where("--dish"));
       if (!(a.diameter.value() > 0.0)) throw InputError(option_where("--dish"), "must be above zero");
       if (!o->dish_efficiency.empty()) {
         a.efficiency = parse_fraction(o->dish_efficiency, option_where("--dish-efficiency"));
@@ -281,13 +291,17 @@ void add_distance(CLI::App& root, Commands& commands) {
     std::vector<std::string> cautions;
     if (!o->duty.empty()) {
       in.duty = parse_fraction(o->duty, option_where("--duty"));
+      bounds::duty(in.duty.value, option_where("--duty"));
       in.duty_source = "given";
       if (!o->mode.empty()) cautions.push_back("--duty overrides the duty factor of mode " + o->mode);
     }
     if (!o->mode.empty()) {
       const auto& dt = power::builtin_duty_table();
       const auto* m = dt.find(o->mode);
-      if (!m) throw InputError(option_where("--mode"), "unknown mode \"" + o->mode + "\"; expected one of: " + dt.names());
+      if (!m)
+        throw InputError(option_where("--mode"), "unknown mode \"" + o->mode + "\"" +
+                                                     did_you_mean(o->mode, split_names(dt.names())) +
+                                                     "; expected one of: " + dt.names());
       if (o->duty.empty()) {
         in.duty = m->duty;
         in.duty_source = "mode " + m->name + ": " + m->source;
@@ -299,16 +313,23 @@ void add_distance(CLI::App& root, Commands& commands) {
     }
     if (!o->on_air.empty() && !o->pattern.empty())
       throw InputError(option_where("--on-air"), "give --on-air or --pattern, not both");
-    if (!o->on_air.empty())
-      in.pattern = power::OperatingPattern::fixed(parse_fraction(o->on_air, option_where("--on-air")));
+    if (!o->on_air.empty()) {
+      const auto share = parse_fraction(o->on_air, option_where("--on-air"));
+      bounds::duty(share.value, option_where("--on-air"));
+      in.pattern = power::OperatingPattern::fixed(share);
+    }
     else if (!o->pattern.empty())
       in.pattern = parse_pattern(o->pattern);
     in.line = build_line(*o);
     std::optional<units::Length> size;
-    if (!o->size.empty()) size = parse_length(o->size, option_where("--size"));
+    if (!o->size.empty()) {
+      size = parse_length(o->size, option_where("--size"));
+      bounds::length(size->value(), option_where("--size"));
+    }
     std::optional<units::Length> person;
     if (!o->distance.empty()) {
       person = parse_length(o->distance, option_where("--distance"));
+      bounds::length(person->value(), option_where("--distance"));
       if (!(person->value() > 0.0)) throw InputError(option_where("--distance"), "must be above zero");
     }
 
@@ -478,6 +499,7 @@ void add_distance(CLI::App& root, Commands& commands) {
         j["exemption"] = e;
       }
       j["cautions"] = cautions;
+      report::check_finite(j, "distance result");
       out << j.dump(2) << "\n";
       return exit_code;
     }

@@ -2,9 +2,12 @@
 // (issue 5). The CLI reads the file, calls the core, builds the record and hands it to the writers.
 #include <unistd.h>
 
+#include <algorithm>
 #include <cctype>
+#include <cerrno>
 #include <cmath>
 #include <cstdlib>
+#include <cstring>
 #include <filesystem>
 #include <fstream>
 #include <iostream>
@@ -17,8 +20,11 @@
 #include "cli/command.hpp"
 #include "cli/place_command.hpp"
 #include "report/place_report.hpp"
+#include "core/bounds.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
+#include "exposure/work_estimate.hpp"
+#include "report/finite_check.hpp"
 #include "limits/limits_toml.hpp"
 #include "report/format.hpp"
 #include "report/record.hpp"
@@ -41,8 +47,11 @@ struct EvalOptions {
   bool verbose = false;
   std::string units;  // metric | imperial | both (default: both for fcc, metric otherwise)
   std::string standard;
+  const CLI::Option* standard_option = nullptr;
   unsigned threads = 0;
   bool place = false;  // evaluate --place: add the placement search to the report (issue 10)
+  std::size_t max_unknowns = em::kMaxUnknowns;
+  double max_grid_cells = exposure::kDefaultMaxGridCells;
 };
 
 report::UnitSystem units_option(const std::string& s, limits::Standard standard) {
@@ -55,7 +64,26 @@ report::UnitSystem units_option(const std::string& s, limits::Standard standard)
   throw InputError(option_where("--units"), "unknown unit system \"" + s + "\": expected metric, imperial or both");
 }
 
+// `--out DIR` is checked before the evaluation starts (issue 14): not empty, not a file, and in a
+// directory that can be written (the nearest existing ancestor when DIR does not exist yet).
+void check_out_dir(const std::string& dir) {
+  namespace fs = std::filesystem;
+  const Where w = option_where("--out");
+  if (dir.empty()) throw InputError(w, "must not be empty (give a directory, or `--out` alone for reports/<station-name>/)");
+  std::error_code ec;
+  fs::path p(dir);
+  if (fs::exists(p, ec) && !fs::is_directory(p, ec)) throw InputError(w, "\"" + dir + "\" exists and is not a directory");
+  fs::path probe = p;
+  while (!probe.empty() && !fs::exists(probe, ec)) probe = probe.parent_path();
+  if (probe.empty()) probe = ".";
+  if (!fs::is_directory(probe, ec)) throw InputError(w, "\"" + probe.string() + "\" is not a directory");
+  if (::access(probe.c_str(), W_OK | X_OK) != 0)
+    throw InputError(w, "cannot write into \"" + probe.string() + "\": " + std::strerror(errno));
+}
+
 std::string read_file(const std::string& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
   std::ostringstream ss;
@@ -181,15 +209,37 @@ report::Record::Placement placement_for_report(const station::Station& st, std::
 int run_evaluation(const EvalOptions& o, std::string_view text, const std::string& input_name,
                    const std::string& file_for_messages, std::ostream& out, std::ostream& err) {
   (void)units_option(o.units, limits::Standard::fcc);  // a bad --units is refused before any work
+  if (o.standard_option != nullptr && o.standard_option->count() > 0 && o.standard.empty())
+    throw InputError(option_where("--standard"), "must not be empty: expected fcc, icnirp2020, icnirp1998 or sc6");
+  const auto standard = standard_option(o.standard);
+  const bool out_given = o.out_option != nullptr && o.out_option->count() > 0;
+  // `--out` alone: CLI11 records an empty value (an explicit `--out ""` is refused by run()).
+  const bool out_bare = out_given && o.out_dir.empty();
+  if (out_given && !out_bare) check_out_dir(o.out_dir);
   const station::Station st = station::load_station(text, file_for_messages);
+  if (out_bare) check_out_dir("reports/" + report::slug(st.name));
   station::BuildOptions bo;
-  bo.standard = standard_option(o.standard);
+  bo.standard = standard;
+  bo.max_unknowns = o.max_unknowns;
   const station::Built built = station::build(st, bo);
   const report::UnitSystem units = units_option(o.units, built.standard);  // checked before the long run
 
   exposure::EvaluationOptions eo;
   eo.threads = o.threads;
   eo.progress = progress_for(err, o.json);
+  // Work estimated before any grid is allocated (issue 14).
+  const double cells = exposure::estimated_grid_cells(built.input, eo.grid_spacing_m);
+  if (cells > o.max_grid_cells) {
+    // Named by the largest zone (zones are built in the station's order).
+    const auto per_zone = exposure::estimated_grid_cells_per_zone(built.input, eo.grid_spacing_m);
+    const std::size_t big = static_cast<std::size_t>(std::max_element(per_zone.begin(), per_zone.end()) - per_zone.begin());
+    const Where w = big < st.site.zones.size()
+                        ? Where{file_for_messages, st.site.zones[big].line, "zone[" + std::to_string(big) + "]"}
+                        : Where{file_for_messages, 0, "zone"};
+    throw InputError(w, fmt::format("the zones need about {:.3g} grid cells at {:.3g} m spacing ({:.3g} in this one), "
+                                    "more than the cap of {:.3g} (raise it with --max-grid-cells, or split the zones)",
+                                    cells, eo.grid_spacing_m, per_zone[big], o.max_grid_cells));
+  }
   exposure::StationEvaluation ev = exposure::evaluate(built.input, eo);
 
   report::Record rec;
@@ -211,13 +261,14 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.references = report::default_references();
   rec.evaluation = std::move(ev);
   rec.cautions = report::all_cautions(rec);
+  // Every number of the record is finite, or the run fails as an internal error (exit 3).
+  report::check_finite(report::to_json(rec), "evaluation record");
   if (o.place) rec.placement = placement_for_report(st, bo.standard, o.threads, err, o.json);
 
   // Write the report files first (all or nothing), then print. A bare `--out` writes to the
   // default directory reports/<station-name>/ (issue 7).
   std::string out_dir = o.out_dir;
-  if (out_dir.empty() && o.out_option != nullptr && o.out_option->count() > 0)
-    out_dir = "reports/" + report::slug(st.name);
+  if (out_bare) out_dir = "reports/" + report::slug(st.name);
   if (!out_dir.empty()) report::write_report(rec, out_dir);
   if (o.json) {
     out << report::to_json(rec).dump(2) << "\n";
@@ -241,9 +292,13 @@ void common_options(CLI::App* sub, const std::shared_ptr<EvalOptions>& o) {
   sub->add_flag("--json", o->json, "Print the evaluation record as JSON");
   sub->add_flag("--verbose", o->verbose, "Print every table and power-chain step (default: a summary of at most 100 columns)");
   sub->add_option("--units", o->units, "Lengths in metric, imperial or both (default: both for fcc, metric otherwise)");
-  sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
+  o->standard_option = sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
   sub->add_option("--threads", o->threads, "Worker threads for the grid (default: all cores)")
       ->check(CLI::Range(1u, 256u));
+  sub->add_option("--max-unknowns", o->max_unknowns, "Cap on moment-method unknowns per antenna (default 4000; 16 N² bytes)")
+      ->check(CLI::Range(std::size_t{1}, std::size_t{20000}));
+  sub->add_option("--max-grid-cells", o->max_grid_cells, "Cap on zone grid cells over all zones and floors (default 4e6)")
+      ->check(CLI::Range(1.0, 1e9));
 }
 
 struct FieldOptions {
@@ -271,6 +326,7 @@ exposure::SitePoint parse_at(const std::string& text) {
   double v[3];
   for (int i = 0; i < 3; ++i) v[i] = parse_length(parts[static_cast<std::size_t>(i)], option_where("--at"), Sign::any).value();
   if (v[2] < 0.0) throw InputError(option_where("--at"), "the point is below ground");
+  for (double c : v) bounds::length(c, option_where("--at"), true);
   return {v[0], v[1], v[2]};
 }
 
@@ -324,6 +380,7 @@ int run_field(const FieldOptions& o, std::ostream& out) {
   j["note"] = "ratios are the power ratio to the limit of each tier (100 % = at the limit), at this point only "
               "(no body averaging), each tier at its own averaging time";
   if (o.json) {
+    report::check_finite(j, "field result");
     out << j.dump(2) << "\n";
   } else {
     out << text_out.str();

@@ -9,6 +9,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "report/finite_check.hpp"
 #include "cli/command.hpp"
 #include "core/quantity_parse.hpp"
 #include "limits/limits.hpp"
@@ -127,6 +128,7 @@ void print_json(std::ostream& out, const LimitTable& table, units::Frequency f, 
     t["document_tier"] = v.document_tier;
     j["tiers"][limits::to_string(r.tier)] = t;
   }
+  report::check_finite(j, "limits result");  // no NaN or inf reaches the output (issue 14)
   out << j.dump(2) << "\n";
 }
 

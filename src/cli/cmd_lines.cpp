@@ -9,6 +9,7 @@
 
 #include <string>
 
+#include "report/finite_check.hpp"
 #include "cli/command.hpp"
 #include "siting/checks.hpp"
 #include "siting/clearances_toml.hpp"
@@ -47,9 +48,11 @@ void add_lines(CLI::App& root, Commands& commands) {
     const toml::table root = read_toml_file(o->station);
     const auto site = siting::parse_site_elements(root, o->station);
     const auto report = siting::run_checks(site, siting::builtin_clearance_tables());
-    if (o->json)
-      out << siting::lines_report_json(report).dump(2) << "\n";
-    else {
+    if (o->json) {
+      const auto j = siting::lines_report_json(report);
+      standoff::report::check_finite(j, "lines result");  // no NaN or inf reaches the output (issue 14)
+      out << j.dump(2) << "\n";
+    } else {
       out << siting::lines_report_text(report);
       // The installation verdict in the record's words (issue 13).
       std::size_t failed = 0;

@@ -15,7 +15,9 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.hpp"
+#include "core/bounds.hpp"
 #include "core/constants.hpp"
+#include "core/suggest.hpp"
 #include "core/quantity_parse.hpp"
 #include "em/builders.hpp"
 #include "em/fields.hpp"
@@ -23,6 +25,7 @@
 #include "em/solve.hpp"
 #include "power/feedline.hpp"
 #include "power/power_tables_toml.hpp"
+#include "report/finite_check.hpp"
 
 namespace standoff::cli {
 namespace {
@@ -35,7 +38,29 @@ struct WireOptions {
   std::string z0, line, line_length, sweep, radials, radial_length, sides, droop;
   bool resonate = false;
   bool json = false;
+  std::size_t max_unknowns = em::kMaxUnknowns;
 };
+
+// The option behind an antenna-model error (issue 14): the model names its own fields.
+std::string option_for(const InputError& e) {
+  const std::string& f = e.where().field;
+  const std::string& m = e.message();
+  auto has = [&](const char* s) { return m.find(s) != std::string::npos; };
+  if (f == "radials") return "--radials";
+  if (f == "radial length" || f.rfind("radial ", 0) == 0) return has("radius") ? "--radius" : "--radial-length";
+  if (f == "spacing") return "--spacing";
+  if (f == "droop") return "--droop";
+  if (f == "sides") return "--sides";
+  if (f == "gauge") return "--gauge";
+  if (f == "frequency") return "--freq";
+  if (f == "ground") return "--ground";
+  if (f == "--resonate") return "--resonate";
+  if (f == "second conductor" && has("radius")) return "--radius2";
+  if (has("radius") || has("radii") || has("thin-wire")) return "--radius";
+  if (has("ground")) return "--height";
+  if (has("parallel wires")) return "--spacing";
+  return "--length";
+}
 
 // The CLI segments more finely than the engine's default lambda/20 rule (the delta-gap feed
 // impedance needs about lambda/80 near resonance; see docs/methods.md, thin-wire section).
@@ -141,6 +166,7 @@ Result evaluate_at(const WireOptions& o, const Setup& s, double f, double length
                    double line_length) {
   em::SolveOptions so;
   so.max_segment_wavelengths = kCliSegmentWavelengths;
+  so.max_unknowns = o.max_unknowns;
   Result r;
   r.f = f;
   em::Solution sol;
@@ -231,7 +257,7 @@ void print_text(std::ostream& out, const Result& r) {
   out << "frequency " << sig(r.f / 1e6, 6) << " MHz, length " << sig(r.length, 5) << " m"
       << (r.resonant_length ? " (trimmed to resonance)" : "") << "\n";
   out << "  feed impedance " << impedance_text(r.z) << "\n";
-  out << "  SWR " << (std::isfinite(r.swr) ? sig(r.swr, 3) : std::string("inf")) << " on " << sig(r.z0, 4) << " ohm";
+  out << "  SWR " << (std::isfinite(r.swr) ? sig(r.swr, 3) : std::string("not evaluated (the load reflects all power)")) << " on " << sig(r.z0, 4) << " ohm";
   if (r.line) {
     out << " (" << r.line->name << ")";
     if (r.line->evaluated)
@@ -250,10 +276,15 @@ void print_text(std::ostream& out, const Result& r) {
 int run_wire(const WireOptions& o, std::ostream& out) {
   static const std::vector<std::string> kinds{"dipole", "folded-dipole", "inverted-v", "monopole", "loop", "yagi2", "yagi3"};
   if (std::find(kinds.begin(), kinds.end(), o.kind) == kinds.end())
-    throw InputError(option_where("KIND"), "unknown antenna \"" + o.kind +
-                                               "\"; expected dipole, folded-dipole, inverted-v, monopole, loop, yagi2 or yagi3");
+    throw InputError(option_where("KIND"), "unknown antenna \"" + o.kind + "\"" + did_you_mean(o.kind, kinds) +
+                                               "; expected dipole, folded-dipole, inverted-v, monopole, loop, yagi2 or yagi3");
   const double f = parse_frequency(o.freq, option_where("--freq")).value();
-  if (!(f > 0.0)) throw InputError(option_where("--freq"), "frequency must be above zero");
+  bounds::frequency(f, option_where("--freq"));
+  // Every length option within the plausibility bounds (core/bounds.hpp).
+  for (const auto& [text, option] : {std::pair{&o.length, "--length"}, {&o.radius, "--radius"}, {&o.radius2, "--radius2"},
+                                     {&o.spacing, "--spacing"}, {&o.height, "--height"},
+                                     {&o.radial_length, "--radial-length"}, {&o.line_length, "--line-length"}})
+    if (!text->empty()) bounds::length(parse_length(*text, option_where(option)).value(), option_where(option));
   Setup s;
   s.kind = o.kind;
   if (!o.radius.empty() && !o.gauge.empty()) throw InputError(option_where("--gauge"), "give --radius or --gauge, not both");
@@ -289,7 +320,9 @@ int run_wire(const WireOptions& o, std::ostream& out) {
     const auto& table = power::builtin_feedline_table();
     line = table.find(o.line);
     if (line == nullptr)
-      throw InputError(option_where("--line"), "unknown feed-line class \"" + o.line + "\"; expected one of: " + table.names());
+      throw InputError(option_where("--line"), "unknown feed-line class \"" + o.line + "\"" +
+                                                   did_you_mean(o.line, split_names(table.names())) +
+                                                   "; expected one of: " + table.names());
     if (o.line_length.empty()) throw InputError(option_where("--line-length"), "--line needs --line-length");
     line_length = parse_length(o.line_length, option_where("--line-length")).value();
   } else if (!o.line_length.empty()) {
@@ -306,6 +339,7 @@ int run_wire(const WireOptions& o, std::ostream& out) {
     const double f2 = parse_frequency(o.sweep.substr(c1 + 1, c2 - c1 - 1), option_where("--sweep")).value();
     const int n = parse_count(o.sweep.substr(c2 + 1), "--sweep", 2, 201);
     if (!(f1 > 0.0 && f2 > f1)) throw InputError(option_where("--sweep"), "F2 must be above F1 and both above zero");
+    bounds::frequency(f2, option_where("--sweep"));
     freqs.clear();
     for (int i = 0; i < n; ++i) freqs.push_back(f1 + (f2 - f1) * i / (n - 1));
   }
@@ -315,7 +349,12 @@ int run_wire(const WireOptions& o, std::ostream& out) {
   if (!(length > 0.0)) throw InputError(option_where("--length"), "length must be above zero");
 
   std::vector<Result> results;
-  for (double fi : freqs) results.push_back(evaluate_at(o, s, fi, length, line, line_length));
+  try {
+    for (double fi : freqs) results.push_back(evaluate_at(o, s, fi, length, line, line_length));
+  } catch (const InputError& e) {
+    if (e.where().file != "antenna model") throw;
+    throw InputError(option_where(option_for(e)), "the antenna cannot be modelled: " + e.where().field + ": " + e.message());
+  }
 
   const std::string caution =
       "Model results for an isolated antenna: supports, nearby conductors, the feed line and the real ground change "
@@ -331,6 +370,7 @@ int run_wire(const WireOptions& o, std::ostream& out) {
     j["kind"] = o.kind;
     j["ground"] = s.ground.name;
     j["caution"] = caution;
+    report::check_finite(j, "wire result");
     out << j.dump(2) << "\n";
   } else {
     out << o.kind << " over " << s.ground.name << "\n";
@@ -365,6 +405,8 @@ void add_wire(CLI::App& root, Commands& commands) {
   sub->add_option("--line-length", opts->line_length, "Length of the feed line");
   sub->add_option("--sweep", opts->sweep, "Frequency sweep F1:F2:N of the antenna built for --freq");
   sub->add_flag("--json", opts->json, "Write JSON instead of text");
+  sub->add_option("--max-unknowns", opts->max_unknowns, "Cap on moment-method unknowns (default 4000; 16 N² bytes)")
+      ->check(CLI::Range(std::size_t{1}, std::size_t{20000}));
   commands.push_back(Command{sub, [opts](std::ostream& out, std::ostream&) { return run_wire(*opts, out); }});
 }
 

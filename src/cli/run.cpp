@@ -4,6 +4,7 @@
 #include <ostream>
 
 #include "cli/command.hpp"
+#include "core/error_list.hpp"
 
 namespace standoff::cli {
 
@@ -20,17 +21,39 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   add_lines(app, commands);
   add_place(app, commands);
 
+  // An empty argument is never meaningful (`--out ""`, `--standard ""`, `--out=`): refused up
+  // front, naming the option it was given to (issue 14).
+  for (std::size_t i = 0; i < args.size(); ++i) {
+    const std::string& a = args[i];
+    const bool empty_eq = a.rfind("--", 0) == 0 && !a.empty() && a.back() == '=';
+    if (!a.empty() && !empty_eq) continue;
+    const std::string opt = empty_eq ? a.substr(0, a.size() - 1)
+                            : (i > 0 && args[i - 1].rfind("--", 0) == 0) ? args[i - 1] : std::string("argument " + std::to_string(i + 1));
+    err << "standoff: error: command line: " << opt << ": must not be empty\n";
+    return kBadInput;
+  }
   std::vector<std::string> reversed(args.rbegin(), args.rend());
   try {
     app.parse(reversed);
   } catch (const CLI::ParseError& e) {
-    const int code = app.exit(e, out, err);
-    return code == 0 ? kOk : kBadInput;
+    if (e.get_exit_code() == 0) {
+      app.exit(e, out, err);  // --help
+      return kOk;
+    }
+    // One error style across commands: "standoff: error: command line: ...".
+    err << "standoff: error: command line: " << e.what() << "\nRun with --help for more information.\n";
+    return kBadInput;
   }
   for (const auto& c : commands) {
     if (!c.app->parsed()) continue;
     try {
       return c.handler(out, err);
+    } catch (const InputErrors& e) {
+      // One error style across commands: "standoff: error: file:line: field: message", one a line.
+      for (const auto& x : e.all()) err << "standoff: error: " << x.what() << "\n";
+      err << "standoff: " << e.all().size() << " errors"
+          << (e.all().size() >= kMaxErrors ? " (stopped at " + std::to_string(kMaxErrors) + ")" : std::string()) << "\n";
+      return kBadInput;
     } catch (const InputError& e) {
       err << "standoff: error: " << e.what() << "\n";
       return kBadInput;

@@ -144,11 +144,18 @@ units::Power parse_power(std::string_view text, const Where& where) {
 units::Gain parse_gain(std::string_view text, const Where& where) {
   constexpr std::string_view expected = "a gain in dBi, dBd or as a plain ratio (e.g. \"1.64 x\")";
   const auto [number, unit] = split_number(text, where, expected);
-  if (unit == "dBi") return units::Gain::from_dbi(number);
-  if (unit == "dBd") return units::Gain::from_dbd(number);
+  // "4444 dBi" overflows the ratio to infinity and "-4444 dBi" underflows it to zero (found by
+  // fuzzing, issue 14): refused like "inf dBi".
+  auto finite = [&](units::Gain g) {
+    if (!(std::isfinite(g.ratio) && g.ratio > 0.0 && std::isfinite(g.dbi())))
+      throw InputError(where, "gain \"" + std::string(text) + "\" is out of range");
+    return g;
+  };
+  if (unit == "dBi") return finite(units::Gain::from_dbi(number));
+  if (unit == "dBd") return finite(units::Gain::from_dbd(number));
   if (unit == "x" || unit == "ratio") {
     if (number <= 0.0) throw InputError(where, "gain ratio \"" + std::string(text) + "\" must be above zero");
-    return units::Gain{number};
+    return finite(units::Gain{number});
   }
   if (unit.empty()) throw InputError(where, "\"" + std::string(text) + "\" has no unit: expected " + std::string(expected));
   throw InputError(where, "unknown unit \"" + std::string(unit) + "\" in \"" + std::string(text) +

@@ -94,8 +94,18 @@ Mesh build_mesh(const Model& model, double max_segment_wavelengths, std::size_t 
     }
     int n = wi.segments;
     if (n < 0) fail(name, "segment count must be positive (0 = automatic)");
+    // Work estimated before anything is allocated (issue 14): the automatic count in double
+    // precision, refused against the cap before the cast and before the segments are built.
+    const double n_auto = std::ceil(len / (max_segment_wavelengths * lambda) - 1e-9);
+    const double n_est = n > 0 ? double(n) : n_auto;
+    if (!(double(mesh.segments.size()) + n_est <= double(max_unknowns) + double(nw)))
+      fail(name, "the antenna needs about " + std::to_string(static_cast<long long>(std::min(
+                           double(mesh.segments.size()) + n_est, 9e18))) +
+                           " segments (wire length " + fmt_m(len) + "), more than the cap of " +
+                           std::to_string(max_unknowns) + " unknowns (16 N^2 bytes of matrix memory; raise it with "
+                           "--max-unknowns)");
     if (n == 0) {
-      n = std::max(1, static_cast<int>(std::ceil(len / (max_segment_wavelengths * lambda) - 1e-9)));
+      n = std::max(1, static_cast<int>(n_auto));
       // Keep segment/radius >= 8 where the lambda/10 rule allows it.
       if (len / n < 8.0 * wi.radius_m) {
         const int n8 = std::max(1, static_cast<int>(std::floor(len / (8.0 * wi.radius_m))));
@@ -246,7 +256,8 @@ Mesh build_mesh(const Model& model, double max_segment_wavelengths, std::size_t 
   }
   if (mesh.bases.size() > max_unknowns)
     fail("segments", std::to_string(mesh.bases.size()) + " unknowns exceed the memory cap of " +
-                         std::to_string(max_unknowns) + " (16 N^2 bytes): use fewer segments");
+                         std::to_string(max_unknowns) + " (16 N^2 bytes): use fewer segments or raise the cap with "
+                         "--max-unknowns");
 
   if (model.ground.kind == GroundKind::real) {
     double zmin = 1e300;

@@ -193,6 +193,7 @@ void detailed_distances(const SourceInput& s, const SourceLimits& lim, unsigned 
 
   std::optional<double> dist[2];
   bool beyond[2] = {false, false};
+  bool none[2] = {true, true};  // no sample exceeds (or fails to evaluate) in any direction
   bool any_invalid = false;
   for (int t = 0; t < 2; ++t) {
     double worst = 0.0;
@@ -203,13 +204,16 @@ void detailed_distances(const SourceInput& s, const SourceLimits& lim, unsigned 
         if (!b.valid) any_invalid = true;
         if (!b.valid || b.avg[t].value > 1.0) last_bad = static_cast<std::ptrdiff_t>(k);
       }
+      if (last_bad >= 0) none[t] = false;
       if (last_bad + 1 >= static_cast<std::ptrdiff_t>(nr)) beyond[t] = true;
       else if (last_bad >= 0) worst = std::max(worst, radii[static_cast<std::size_t>(last_bad) + 1]);
     }
-    if (!beyond[t]) dist[t] = round_up_distance(worst);
+    if (!beyond[t] && !none[t]) dist[t] = round_up_distance(worst);
   }
   op.detailed_distance.controlled_m = dist[0];
   op.detailed_distance.uncontrolled_m = dist[1];
+  op.detailed_distance.controlled_none = none[0];
+  op.detailed_distance.uncontrolled_none = none[1];
   for (int t = 0; t < 2; ++t)
     if (beyond[t])
       op.notes.push_back(std::string("detailed ") + (t == 0 ? "controlled" : "uncontrolled") +

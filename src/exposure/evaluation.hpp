@@ -50,6 +50,10 @@ struct PowerStep {
 struct TierDistances {
   std::optional<double> controlled_m;
   std::optional<double> uncontrolled_m;
+  // Detailed distances only: nothing exceeds the tier's limit at body height anywhere searched,
+  // so there is no compliance distance ("none"; the value is then empty, never 0.0 m).
+  bool controlled_none = false;
+  bool uncontrolled_none = false;
 };
 
 // Exposure at one place, for one operation (or the sum over a group).

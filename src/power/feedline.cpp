@@ -191,8 +191,23 @@ LineRun run_line(const FeedLine& line, units::Length length, units::Frequency f,
     throw InputError(Where{"", 0, "load"},
                      "the load reflects all power (|Γ| = 1): no power reaches the antenna's resistance — give the "
                      "antenna's feed impedance or an SWR below infinity");
-  const double a = std::pow(10.0, r.matched_loss_db / 10.0);
   r.swr_load = swr_from_reflection(r.gamma_load);
+  // Beyond kMaxLineLossDb the power reaching the antenna is below 1e-10 of the input and the
+  // loss formulas overflow double precision: the run is not evaluated rather than printed as inf.
+  if (!(r.matched_loss_db <= kMaxLineLossDb)) {
+    r.evaluated = false;
+    r.note = "the line's matched loss (" + std::to_string(static_cast<long long>(std::min(r.matched_loss_db, 1e15))) +
+             " dB) exceeds " + std::to_string(static_cast<int>(kMaxLineLossDb)) +
+             " dB: the power reaching the antenna is not meaningful (check the line length); not evaluated — "
+             "measure or use another method";
+    r.swr_input = 1.0;
+    r.total_loss_db = r.matched_loss_db;
+    r.mismatch_loss_db = 0.0;
+    r.input = input;
+    r.delivered = input * 0.0;
+    return r;
+  }
+  const double a = std::pow(10.0, r.matched_loss_db / 10.0);
   r.swr_input = swr_from_reflection(r.gamma_load / a);
   r.total_loss_db = total_loss_db(r.matched_loss_db, r.gamma_load);
   r.mismatch_loss_db = r.total_loss_db - r.matched_loss_db;

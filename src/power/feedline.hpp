@@ -60,6 +60,10 @@ struct ParallelWireGeometry {
 // A user-defined line: Z0 and its matched loss at one reference frequency. Scaling to another
 // frequency takes the SMALLER of the √f (conductor) and f (dielectric) laws, so the loss is never
 // over-estimated: ×√(f/f_ref) above f_ref, ×(f/f_ref) below.
+// Matched line loss above which a run is not evaluated (the power left is below 1e-10 of the
+// input; common practice (no source): no real station feeds an antenna through 100 dB of cable).
+inline constexpr double kMaxLineLossDb = 100.0;
+
 struct UserLineData {
   units::Impedance z0;
   double loss_db_per_100m = 0.0;

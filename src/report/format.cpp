@@ -105,8 +105,10 @@ std::string verdict_word(const std::string& verdict) {
   return "NOT EVALUATED";
 }
 
+std::string distance_up(const std::optional<double>& m, bool none) { return none ? "none" : distance_up(m); }
+
 std::string tiers(const exposure::TierDistances& d) {
-  return "C " + distance_up(d.controlled_m) + " / U " + distance_up(d.uncontrolled_m);
+  return "C " + distance_up(d.controlled_m, d.controlled_none) + " / U " + distance_up(d.uncontrolled_m, d.uncontrolled_none);
 }
 
 std::size_t display_width(const std::string& s) {

@@ -15,6 +15,7 @@ std::string frequency(double hz);                        // "14.2 MHz", "1.296 G
 std::string power(double watts);                          // 3 significant figures, as given ("1500 W")
 std::string power_down(const std::optional<double>& w);   // rounded DOWN, or "not evaluated"
 std::string distance_up(const std::optional<double>& m);  // rounded UP to 0.1 m, or "not evaluated"
+std::string distance_up(const std::optional<double>& m, bool none);  // "none" when nothing exceeds
 std::string distance_down(const std::optional<double>& m);  // rounded DOWN (an actual clearance)
 std::string percent_up(double ratio);                     // "212.4 %" rounded UP to 0.1 %; "23 014 %" from 1000 %
 // Lengths in the record's unit system: "3.1 m", "10.2 ft" or "3.1 m (10.2 ft)"; up or down.

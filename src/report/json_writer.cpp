@@ -11,7 +11,8 @@ namespace {
 using nlohmann::json;
 
 json opt(const std::optional<double>& v) {
-  return (v && std::isfinite(*v)) ? json(*v) : json(nullptr);
+  // A non-finite value is kept so that check_finite (report/finite_check.hpp) refuses it (issue 14).
+  return v ? json(*v) : json(nullptr);
 }
 
 json tier_distances(const exposure::TierDistances& d) {
@@ -52,6 +53,13 @@ json operation(const exposure::OperationResult& op) {
   j["permitted_pep_w"] = opt(op.permitted_pep_w);
   j["screening_distance_m"] = tier_distances(op.screening_distance);
   j["detailed_distance_m"] = tier_distances(op.detailed_distance);
+  // A null detailed distance says why: nothing exceeds at body height, or the search stopped.
+  auto why = [](const std::optional<double>& v, bool none) -> json {
+    if (none) return "none: nothing exceeds the limit at body height in any direction searched";
+    return v ? json(nullptr) : json("not evaluated: exceeds or cannot be evaluated out to the end of the search");
+  };
+  j["detailed_distance_reason"] = {{"controlled", why(op.detailed_distance.controlled_m, op.detailed_distance.controlled_none)},
+                                   {"uncontrolled", why(op.detailed_distance.uncontrolled_m, op.detailed_distance.uncontrolled_none)}};
   j["verdict"] = exposure::to_string(op.verdict);
   j["notes"] = op.notes;
   j["not_evaluated_count"] = op.not_evaluated_count;

@@ -179,8 +179,8 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
                         fmtx::permitted_power(op.permitted_pep_w), paint(fmtx::verdict_word(v), v, options.colour)});
     dist.rows.push_back({op.name, e ? fmtx::where(op.worst.at) : "—", fmtx::distance_up(op.screening_distance.controlled_m),
                          fmtx::distance_up(op.screening_distance.uncontrolled_m),
-                         fmtx::distance_up(op.detailed_distance.controlled_m),
-                         fmtx::distance_up(op.detailed_distance.uncontrolled_m)});
+                         fmtx::distance_up(op.detailed_distance.controlled_m, op.detailed_distance.controlled_none),
+                         fmtx::distance_up(op.detailed_distance.uncontrolled_m, op.detailed_distance.uncontrolled_none)});
   }
   out << "Operations (worst exposure in % of the limit of the tier where it occurs)\n";
   out << ops.render("  ") << "\n";

@@ -8,6 +8,7 @@
 #include <set>
 
 #include "core/error.hpp"
+#include "report/staging.hpp"
 #include "report/svg.hpp"
 #include "report/writers.hpp"
 
@@ -71,14 +72,17 @@ std::vector<fs::path> write_files_atomically(const fs::path& dir,
     for (const auto& p : staged) {
       std::error_code ignore;
       fs::remove(p, ignore);
+      unregister_staged(p.string());
     }
   };
   try {
     for (const auto& [name, content] : files) {
       const fs::path tmp = dir / (".tmp-" + name);
-      write_whole_file(tmp, content);
+      register_staged(tmp.string());  // before the file exists: a signal now removes it
       staged.push_back(tmp);
+      write_whole_file(tmp, content);
     }
+    hold_if_testing();
     // Nothing final is touched unless every final name can take a regular file.
     for (const auto& [name, content] : files) {
       const fs::path final_path = dir / name;
@@ -95,11 +99,13 @@ std::vector<fs::path> write_files_atomically(const fs::path& dir,
   for (std::size_t k = 0; k < files.size(); ++k) {
     const fs::path final_path = dir / files[k].first;
     fs::rename(staged[k], final_path, ec);
+    if (!ec) unregister_staged(staged[k].string());
     if (ec) {
       // Checked above, so this is unexpected (e.g. the disk went away): remove what is left staged.
       for (std::size_t m = k; m < staged.size(); ++m) {
         std::error_code ignore;
         fs::remove(staged[m], ignore);
+        unregister_staged(staged[m].string());
       }
       throw InputError(where_of(final_path), "cannot rename the staged file: " + ec.message());
     }

@@ -19,7 +19,9 @@ using detail::Fields;
 
 units::Length coordinate(const toml::node& n, const Fields& f, const std::string& field) {
   if (!n.is_string()) throw InputError(f.where_node(n, field), "expected a length such as \"12 m\"");
-  return parse_length(*n.value<std::string_view>(), f.where_node(n, field), Sign::any);
+  const auto v = parse_length(*n.value<std::string_view>(), f.where_node(n, field), Sign::any);
+  bounds::check(v, f.where_node(n, field));
+  return v;
 }
 
 const toml::array& point_array(const toml::node& n, const Fields& f, const std::string& field, std::size_t size) {
@@ -214,7 +216,7 @@ Span parse_span(const Fields& f, const std::vector<Support>& supports, const Cle
                                                                 : "give the horizontal tension or a measured sag");
   if (has_tension) {
     s.tension = f.quantity("tension", [](const std::string& x, const Where& w) { return parse_force(x, w); });
-    if (!(s.tension->value() > 0.0)) throw InputError(f.where("tension"), "must be above zero");
+    bounds::tension(s.tension->value(), f.where("tension"));
     if (!s.mass_per_length)
       throw InputError(f.where("tension"), "a tension needs the wire's weight: give `weight` or a `wire` class with one");
   } else {

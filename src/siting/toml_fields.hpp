@@ -3,6 +3,7 @@
 #pragma once
 
 #include <algorithm>
+#include <cmath>
 #include <initializer_list>
 #include <optional>
 #include <string>
@@ -10,6 +11,7 @@
 
 #include <toml++/toml.h>
 
+#include "core/bounds.hpp"
 #include "core/error.hpp"
 #include "core/quantity_parse.hpp"
 
@@ -44,7 +46,8 @@ class Fields {
     const auto* n = get(key);
     if (!n) missing(key);
     if (!n->is_string()) throw InputError(where(key), "expected a string");
-    return std::string(*n->value<std::string_view>());
+    // Control characters escaped (issue 14): a name can never fake a line of the output.
+    return printable(std::string(*n->value<std::string_view>()));
   }
 
   std::optional<std::string> opt_string(std::string_view key) const {
@@ -56,14 +59,17 @@ class Fields {
     const auto* n = get(key);
     if (!n) missing(key);
     if (!n->is_number()) throw InputError(where(key), "expected a number");
-    return *n->value<double>();
+    const double v = *n->value<double>();
+    if (!std::isfinite(v)) throw InputError(where(key), "expected a finite number");
+    return v;
   }
 
   int integer(std::string_view key) const {
     const auto* n = get(key);
     if (!n) missing(key);
     if (!n->is_integer()) throw InputError(where(key), "expected an integer");
-    return static_cast<int>(*n->value<int64_t>());
+    // Range-checked on the 64-bit TOML value before the cast (issue 14).
+    return bounds::integer(*n->value<int64_t>(), -1000000, 1000000, where(key));
   }
 
   const toml::array& array(std::string_view key) const {
@@ -75,13 +81,15 @@ class Fields {
 
   template <class Parse>
   auto quantity(std::string_view key, Parse parse) const {
-    return parse(string(key), where(key));
+    auto q = parse(string(key), where(key));
+    bounds::check(q, where(key));  // plausibility bounds by dimension (core/bounds.hpp)
+    return q;
   }
 
   template <class Parse>
   auto opt_quantity(std::string_view key, Parse parse) const -> std::optional<decltype(parse(std::string(), Where{}))> {
     if (!has(key)) return std::nullopt;
-    return parse(string(key), where(key));
+    return quantity(key, parse);
   }
 
   // Refuses keys that are not in `allowed` (catches typos).

@@ -6,6 +6,7 @@
 #include <sstream>
 
 #include "core/constants.hpp"
+#include "core/suggest.hpp"
 #include "em/builders.hpp"
 #include "em/fields.hpp"
 #include "exposure/aperture.hpp"
@@ -120,6 +121,22 @@ double max_extent(const em::Model& m) {
   return d;
 }
 
+// The station key behind a wire-model error: the model names its own fields (a wire, "length",
+// "segments"); the user wrote antenna keys, so the message names the key that sets that quantity.
+std::string antenna_key_for(const InputError& e) {
+  const std::string& f = e.where().field;
+  const std::string& m = e.message();
+  auto has = [&](const char* s) { return m.find(s) != std::string::npos; };
+  if (f == "elements") return "elements";
+  if (f == "radials" || f == "radial length" || f.rfind("radial ", 0) == 0) return has("radius") ? "wire_diameter" : "radial_length";
+  if (has("radius") || has("radii") || has("thin-wire")) return "wire_diameter";
+  if (has("ground")) return "height";
+  if (f == "droop") return "apex_angle";
+  if (f == "frequency") return "band_centre";
+  if (f == "length" || f == "segments" || has("segments") || has("zero-length")) return "length";
+  return "kind";
+}
+
 struct Solved {
   std::shared_ptr<const em::Solution> solution;
   double gain = 1.0;
@@ -208,7 +225,8 @@ Built build(const Station& st, const BuildOptions& options) {
       const power::DutyMode* m = duties.find(op.mode);
       if (!m)
         throw InputError(where_in(st, "operation", oi, op.line, "mode"),
-                         "unknown mode \"" + op.mode + "\": expected one of " + duties.names());
+                         "unknown mode \"" + op.mode + "\"" + did_you_mean(op.mode, split_names(duties.names())) +
+                             ": expected one of " + duties.names());
       ci.duty = m->duty;
       ci.duty_source = "mode " + m->name + ", " + m->source;
     } else {
@@ -223,7 +241,6 @@ Built build(const Station& st, const BuildOptions& options) {
     }
 
     // Antenna model.
-    const Where wa = where_in(st, "antenna", index_of(st.antennas, &ant), ant.line, "kind");
     std::shared_ptr<const em::Solution> solution;
     double gain = 1.0;
     double size_m = 0.0;
@@ -238,13 +255,17 @@ Built build(const Station& st, const BuildOptions& options) {
           em::Model model = wire_model(ant, f_hz, site_ground, s.notes);
           em::SolveOptions so;
           so.integrate_pattern = false;
+          so.max_unknowns = options.max_unknowns;
           auto sol = std::make_shared<em::Solution>(em::solve(model, so));
           s.gain = em::peak_gain(*sol).gain;
           s.size_m = max_extent(sol->model);
           for (const auto& w : sol->warnings) s.notes.push_back("antenna model: " + w);
           s.solution = std::move(sol);
         } catch (const InputError& e) {
-          throw InputError(wa, "the antenna cannot be modelled at " + num(f_hz / 1e6) + " MHz: " + e.what());
+          std::string key = antenna_key_for(e);
+          if (ant.kind == AntennaKind::yagi && key == "length") key = "band_centre";  // a Yagi is sized from it
+          const Where wk = where_in(st, "antenna", index_of(st.antennas, &ant), ant.line, key);
+          throw InputError(wk, "the antenna cannot be modelled at " + num(f_hz / 1e6) + " MHz: " + e.what());
         }
         it = solved.emplace(key, std::move(s)).first;
       }
@@ -279,7 +300,9 @@ Built build(const Station& st, const BuildOptions& options) {
       const power::FeedLine* cls = line_classes.find(fl->line_class);
       const Where wl = where_in(st, "feed_line", index_of(st.feed_lines, fl), fl->line, "class");
       if (!cls)
-        throw InputError(wl, "unknown feed-line class \"" + fl->line_class + "\": expected one of " + line_classes.names());
+        throw InputError(wl, "unknown feed-line class \"" + fl->line_class + "\"" +
+                                 did_you_mean(fl->line_class, split_names(line_classes.names())) + ": expected one of " +
+                                 line_classes.names());
       power::LoadSpec load = power::LoadSpec::matched_load();
       if (fl->swr) load = power::LoadSpec::from_swr(*fl->swr);
       else if (solution) load = power::LoadSpec::from_impedance(solution->impedance());
@@ -293,7 +316,8 @@ Built build(const Station& st, const BuildOptions& options) {
       chain_c = power::power_chain(ci, lim.controlled.averaging);
       chain_u = power::power_chain(ci, lim.uncontrolled.averaging);
     } catch (const InputError& e) {
-      const Where wl = fl ? where_in(st, "feed_line", index_of(st.feed_lines, fl), fl->line, "class") : wf;
+      const std::string key = e.where().field == "load" ? (fl && fl->swr ? "swr" : "class") : "class";
+      const Where wl = fl ? where_in(st, "feed_line", index_of(st.feed_lines, fl), fl->line, key) : wf;
       throw InputError(wl, e.message());
     }
     const double p_c = chain_c.average_at_antenna.value();

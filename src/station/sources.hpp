@@ -19,6 +19,7 @@ namespace standoff::station {
 struct BuildOptions {
   std::optional<limits::Standard> standard;  // overrides the station file's standard (--standard)
   std::optional<std::string> only_operation;  // build just this operation (for `standoff field`)
+  std::size_t max_unknowns = em::kMaxUnknowns;  // MoM matrix cap (--max-unknowns)
 };
 
 // Everything the evaluation needs, plus the solved wire models (for the report's map and notes).

@@ -1,13 +1,17 @@
 #include "station/station_toml.hpp"
 
 #include <charconv>
+#include <filesystem>
 #include <fstream>
 #include <set>
 #include <sstream>
 
 #include <toml++/toml.h>
 
+#include "core/bounds.hpp"
 #include "core/constants.hpp"
+#include "core/error_list.hpp"
+#include "core/suggest.hpp"
 #include "core/quantity_parse.hpp"
 #include "io/embedded.hpp"
 #include "siting/siting_toml.hpp"
@@ -27,7 +31,9 @@ class Reader {
       if (!allowed.contains(key)) {
         std::string list;
         for (const auto& a : allowed) list += (list.empty() ? "" : ", ") + a;
-        throw InputError(where(key, line_of(v)), "unknown key (typo?); allowed here: " + list);
+        const std::string hint = did_you_mean(key, std::vector<std::string>(allowed.begin(), allowed.end()));
+        throw InputError(where(key, line_of(v)), "unknown key" + (hint.empty() ? std::string(" (typo?)") : hint) +
+                                                     "; allowed here: " + list);
       }
     }
   }
@@ -47,7 +53,8 @@ class Reader {
   std::optional<std::string> opt_string(const std::string& key) const {
     const toml::node* n = t_.get(key);
     if (!n) return std::nullopt;
-    if (const auto* s = n->as_string()) return s->get();
+    // Control characters are escaped (issue 14): a name can never fake a line of the output.
+    if (const auto* s = n->as_string()) return printable(s->get());
     throw InputError(where(key), "expected a string in quotes");
   }
   std::string string(const std::string& key) const {
@@ -60,10 +67,11 @@ class Reader {
     if (s.empty()) throw InputError(where("name"), "must not be empty");
     return s;
   }
-  std::optional<int> opt_int(const std::string& key) const {
+  // Range-checked on the 64-bit TOML value before the cast (issue 14).
+  std::optional<int> opt_int(const std::string& key, std::int64_t lo, std::int64_t hi) const {
     const toml::node* n = t_.get(key);
     if (!n) return std::nullopt;
-    if (const auto* i = n->as_integer()) return static_cast<int>(i->get());
+    if (const auto* i = n->as_integer()) return bounds::integer(i->get(), lo, hi, where(key));
     throw InputError(where(key), "expected a whole number");
   }
   // A quantity string parsed by `parse`, e.g. parse_length.
@@ -71,7 +79,9 @@ class Reader {
   auto opt_quantity(const std::string& key, F parse) const -> std::optional<decltype(parse(std::string_view{}, Where{}))> {
     auto s = opt_quantity_text(key);
     if (!s) return std::nullopt;
-    return parse(*s, where(key));
+    auto q = parse(*s, where(key));
+    bounds::check(q, where(key));  // plausibility bounds by dimension (core/bounds.hpp)
+    return q;
   }
   template <class F>
   auto quantity(const std::string& key, F parse) const {
@@ -97,7 +107,11 @@ class Reader {
   std::string path_;
 };
 
-double len(std::string_view text, const Where& w) { return parse_length(text, w, Sign::any).value(); }
+double len(std::string_view text, const Where& w) {
+  const double v = parse_length(text, w, Sign::any).value();
+  bounds::length(v, w, true);
+  return v;
+}
 
 // ["12 m", "-4 m"]
 PlanPoint plan_point(const toml::node& n, const Where& w) {
@@ -134,6 +148,11 @@ Polygon polygon(const Reader& r, const std::string& key) {
   const Where w = r.where(key);
   const auto* a = n->as_array();
   if (!a) throw InputError(w, "expected a polygon: an array of plan points [[\"x m\", \"y m\"], ...]");
+  // Work estimated before it is done (issue 14): the self-intersection check is O(n²).
+  constexpr std::size_t kMaxPolygonVertices = 10000;
+  if (a->size() > kMaxPolygonVertices)
+    throw InputError(w, "a polygon of " + std::to_string(a->size()) + " vertices is more than the cap of " +
+                            std::to_string(kMaxPolygonVertices) + ": simplify it or split the zone");
   Polygon poly;
   for (const auto& v : *a) poly.push_back(plan_point(v, Where{w.file, line_of(v), w.field}));
   if (poly.size() < 3) throw InputError(w, "a polygon needs at least 3 vertices");
@@ -154,6 +173,7 @@ std::vector<double> heights(const Reader& r, const std::string& key) {
     const auto* s = v.as_string();
     if (!s) throw InputError(w, "expected heights in quotes with their unit, e.g. \"2.8 m\"");
     out.push_back(parse_length(s->get(), w).value());
+    bounds::length(out.back(), w);
   }
   return out;
 }
@@ -161,7 +181,9 @@ std::vector<double> heights(const Reader& r, const std::string& key) {
 limits::Tier tier(const Reader& r) {
   const std::string s = r.string("tier");
   auto t = limits::tier_from_string(s);
-  if (!t) throw InputError(r.where("tier"), "unknown tier \"" + s + "\": expected controlled or uncontrolled");
+  if (!t)
+    throw InputError(r.where("tier"), "unknown tier \"" + s + "\"" + did_you_mean(s, {"controlled", "uncontrolled"}) +
+                                          ": expected controlled or uncontrolled");
   return *t;
 }
 
@@ -213,7 +235,9 @@ Antenna read_antenna(const Reader& r) {
   auto k = antenna_kind(kind);
   if (!k)
     throw InputError(r.where("kind"),
-                     "unknown antenna kind \"" + kind + "\": expected dipole, inverted_v, vertical, yagi, gain, "
+                     "unknown antenna kind \"" + kind + "\"" +
+                         did_you_mean(kind, {"dipole", "inverted_v", "vertical", "yagi", "gain", "collinear", "aperture"}) +
+                         ": expected dipole, inverted_v, vertical, yagi, gain, "
                      "collinear or aperture");
   a.kind = *k;
   a.position = plan_point(*[&]() -> const toml::node* {
@@ -229,11 +253,8 @@ Antenna read_antenna(const Reader& r) {
   if (auto d = r.opt_quantity("wire_diameter", [](std::string_view t, const Where& w) { return parse_length(t, w); }))
     a.wire_diameter_m = d->value();
   if (auto ang = r.opt_quantity("apex_angle", parse_angle)) a.apex_angle_rad = ang->value();
-  a.elements = r.opt_int("elements");
-  if (auto n = r.opt_int("radials")) {
-    if (*n < 0 || *n > 64) throw InputError(r.where("radials"), "must be 0 to 64");
-    a.radials = *n;
-  }
+  a.elements = r.opt_int("elements", 2, 8);
+  if (auto n = r.opt_int("radials", 0, 64)) a.radials = *n;
   if (auto l = r.opt_quantity("radial_length", [](std::string_view t, const Where& w) { return parse_length(t, w); }))
     a.radial_length_m = l->value();
   if (auto f = r.opt_quantity("band_centre", parse_frequency)) a.band_centre_hz = f->value();
@@ -296,7 +317,10 @@ Operation read_operation(const Reader& r) {
   o.frequency = r.quantity("frequency", parse_frequency);
   if (!(o.frequency.value() > 0.0)) throw InputError(r.where("frequency"), "must be greater than zero");
   o.mode = r.opt_string("mode").value_or("");
-  if (auto d = r.opt_quantity("duty", parse_fraction)) o.duty = d->value;
+  if (auto d = r.opt_quantity("duty", parse_fraction)) {
+    bounds::duty(d->value, r.where("duty"));
+    o.duty = d->value;
+  }
   if (o.mode.empty() == !o.duty.has_value())
     throw InputError(r.where_table_key("mode"), "give exactly one of mode (e.g. \"ssb\") or duty (e.g. \"40 %\")");
   o.on = r.opt_quantity("on", parse_time);
@@ -316,6 +340,8 @@ std::string_view demo_station_text() {
 }
 
 Station load_station_file(const std::string& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
   std::ostringstream ss;
@@ -324,6 +350,8 @@ Station load_station_file(const std::string& path) {
 }
 
 Station load_station(std::string_view toml_text, const std::string& file) {
+  if (toml_text.find_first_not_of(" \t\r\n") == std::string_view::npos)
+    throw InputError(Where{file, 0, ""}, "the station file is empty");
   toml::table root;
   try {
     root = toml::parse(toml_text, file);
@@ -331,22 +359,38 @@ Station load_station(std::string_view toml_text, const std::string& file) {
     throw InputError(Where{file, static_cast<int>(e.source().begin.line), ""},
                      "not valid TOML: " + std::string(e.description()));
   }
-  Reader top(root, file, "",
-             {"station", "site", "building", "zone", "point", "transmitter", "feed_line", "antenna", "operation",
-              "power_line", "support", "span"});
+  // Every error is collected per table entry and the loading goes on (up to kMaxErrors), so that
+  // one run reports them all (issue 14). References to a table that had errors are not checked.
+  ErrorCollector errs;
+  errs.run([&] {
+    Reader top(root, file, "",
+               {"station", "site", "building", "zone", "point", "transmitter", "feed_line", "antenna", "operation",
+                "power_line", "support", "span"});
+  });
   Station st;
   st.file = file;
+  std::set<std::string> failed;  // tables with an entry that could not be read
+  auto entry = [&](const std::string& table, auto&& f) {
+    if (!errs.run(f)) failed.insert(table);
+  };
+  auto tables = [&](const std::string& key) {
+    const toml::array* a = nullptr;
+    entry(key, [&] { a = array_of_tables(root, key, file); });
+    return a;
+  };
 
   // [station]
   const toml::table* station_t = root["station"].as_table();
-  if (!station_t) throw InputError(Where{file, 1, "station"}, "missing the [station] table");
-  {
+  if (!station_t) errs.add(InputError(Where{file, 1, "station"}, "missing the [station] table"));
+  if (station_t) entry("station", [&] {
     Reader r(*station_t, file, "station", {"name", "standard", "evaluator", "operating_position"});
     st.name = r.name();
     if (auto s = r.opt_string("standard")) {
       auto id = limits::standard_from_string(*s);
       if (!id)
-        throw InputError(r.where("standard"), "unknown standard \"" + *s + "\": expected fcc, icnirp2020, icnirp1998 or sc6");
+        throw InputError(r.where("standard"), "unknown standard \"" + *s + "\"" +
+                                                  did_you_mean(*s, {"fcc", "icnirp2020", "icnirp1998", "sc6"}) +
+                                                  ": expected fcc, icnirp2020, icnirp1998 or sc6");
       st.standard = *id;
     }
     st.evaluator = r.opt_string("evaluator").value_or("");
@@ -363,26 +407,28 @@ Station load_station(std::string_view toml_text, const std::string& file) {
         throw InputError(r.where("operating_position"), "the operating position is below ground");
       st.operating_position_line = r.where("operating_position").line;
     }
-  }
+  });
 
   // [site]
   const toml::table* site_t = root["site"].as_table();
-  if (!site_t) throw InputError(Where{file, 1, "site"}, "missing the [site] table");
-  {
+  if (!site_t) errs.add(InputError(Where{file, 1, "site"}, "missing the [site] table"));
+  if (site_t) entry("site", [&] {
     Reader r(*site_t, file, "site", {"ground", "boundary"});
     if (auto g = r.opt_string("ground")) {
       auto k = ground_kind(*g);
       if (!k)
         throw InputError(r.where("ground"),
-                         "unknown ground \"" + *g + "\": expected free_space, perfect, average, poor, good or sea_water");
+                         "unknown ground \"" + *g + "\"" +
+                             did_you_mean(*g, {"free_space", "perfect", "average", "poor", "good", "sea_water"}) +
+                             ": expected free_space, perfect, average, poor, good or sea_water");
       st.site.ground = *k;
     }
     st.site.boundary = polygon(r, "boundary");
-  }
+  });
 
-  if (const auto* a = array_of_tables(root, "building", file)) {
+  if (const auto* a = tables("building")) {
     std::size_t i = 0;
-    for (const auto& n : *a) {
+    for (const auto& n : *a) entry("building", [&] {
       Reader r(*n.as_table(), file, indexed("building", i++), {"name", "footprint", "floors", "height"});
       Building b;
       b.line = r.line();
@@ -393,13 +439,13 @@ Station load_station(std::string_view toml_text, const std::string& file) {
       for (double f : b.floors_m)
         if (f >= b.height_m) throw InputError(r.where("floors"), "a floor is at or above the building's height");
       st.site.buildings.push_back(std::move(b));
-    }
-    check_unique(st.site.buildings, "building", file);
+    });
+    entry("building", [&] { check_unique(st.site.buildings, "building", file); });
   }
 
-  if (const auto* a = array_of_tables(root, "zone", file)) {
+  if (const auto* a = tables("zone")) {
     std::size_t i = 0;
-    for (const auto& n : *a) {
+    for (const auto& n : *a) entry("zone", [&] {
       Reader r(*n.as_table(), file, indexed("zone", i++), {"name", "polygon", "building", "tier", "floors"});
       Zone z;
       z.line = r.line();
@@ -411,6 +457,7 @@ Station load_station(std::string_view toml_text, const std::string& file) {
         const Building* b = nullptr;
         for (const auto& bb : st.site.buildings)
           if (bb.name == z.building) b = &bb;
+        if (!b && failed.contains("building")) return void(failed.insert("zone"));  // already reported
         if (!b) throw InputError(r.where("building"), "unknown building \"" + z.building + "\"");
         z.polygon = b->footprint;
         z.floors_m = b->floors_m;
@@ -420,15 +467,15 @@ Station load_station(std::string_view toml_text, const std::string& file) {
       }
       if (r.has("floors")) z.floors_m = heights(r, "floors");
       st.site.zones.push_back(std::move(z));
-    }
-    check_unique(st.site.zones, "zone", file);
+    });
+    entry("zone", [&] { check_unique(st.site.zones, "zone", file); });
   }
-  if (st.site.zones.empty())
-    throw InputError(Where{file, 1, "zone"}, "no [[zone]]: describe at least one place where people can be");
+  if (st.site.zones.empty() && !failed.contains("zone"))
+    errs.add(InputError(Where{file, 1, "zone"}, "no [[zone]]: describe at least one place where people can be"));
 
-  if (const auto* a = array_of_tables(root, "point", file)) {
+  if (const auto* a = tables("point")) {
     std::size_t i = 0;
-    for (const auto& n : *a) {
+    for (const auto& n : *a) entry("point", [&] {
       Reader r(*n.as_table(), file, indexed("point", i++), {"name", "at", "tier"});
       PointOfInterest p;
       p.line = r.line();
@@ -438,27 +485,27 @@ Station load_station(std::string_view toml_text, const std::string& file) {
       if (p.at.z_m < 0.0) throw InputError(r.where("at"), "point is below ground");
       p.tier = r.has("tier") ? tier(r) : limits::Tier::uncontrolled;
       st.site.points.push_back(p);
-    }
-    check_unique(st.site.points, "point", file);
+    });
+    entry("point", [&] { check_unique(st.site.points, "point", file); });
   }
 
-  if (const auto* a = array_of_tables(root, "transmitter", file)) {
+  if (const auto* a = tables("transmitter")) {
     std::size_t i = 0;
-    for (const auto& n : *a) {
+    for (const auto& n : *a) entry("transmitter", [&] {
       Reader r(*n.as_table(), file, indexed("transmitter", i++), {"name", "pep"});
       Transmitter t;
       t.line = r.line();
       t.name = r.name();
       t.pep = r.quantity("pep", parse_power);
-      if (!(t.pep.value() > 0.0)) throw InputError(r.where("pep"), "must be greater than zero");
+      bounds::power_pep(t.pep.value(), r.where("pep"));
       st.transmitters.push_back(t);
-    }
-    check_unique(st.transmitters, "transmitter", file);
+    });
+    entry("transmitter", [&] { check_unique(st.transmitters, "transmitter", file); });
   }
 
-  if (const auto* a = array_of_tables(root, "feed_line", file)) {
+  if (const auto* a = tables("feed_line")) {
     std::size_t i = 0;
-    for (const auto& n : *a) {
+    for (const auto& n : *a) entry("feed_line", [&] {
       Reader r(*n.as_table(), file, indexed("feed_line", i++), {"name", "class", "length", "swr"});
       FeedLine f;
       f.line = r.line();
@@ -480,16 +527,17 @@ Station load_station(std::string_view toml_text, const std::string& file) {
           ok = ec == std::errc() && ptr == t.data() + t.size() && std::isfinite(v);
         }
         if (!ok || !(v >= 1.0)) throw InputError(r.where("swr"), "expected a number of 1 or more, e.g. swr = 1.5 or swr = \"1.5:1\"");
+        bounds::swr(v, r.where("swr"));
         f.swr = v;
       }
       st.feed_lines.push_back(f);
-    }
-    check_unique(st.feed_lines, "feed_line", file);
+    });
+    entry("feed_line", [&] { check_unique(st.feed_lines, "feed_line", file); });
   }
 
-  if (const auto* a = array_of_tables(root, "antenna", file)) {
+  if (const auto* a = tables("antenna")) {
     std::size_t i = 0;
-    for (const auto& n : *a) {
+    for (const auto& n : *a) entry("antenna", [&] {
       Reader r(*n.as_table(), file, indexed("antenna", i++),
                {"name", "kind", "position", "height", "azimuth", "length", "wire_diameter", "apex_angle", "elements",
                 "band_centre", "gain", "diameter", "efficiency", "beamwidth", "radials", "radial_length"});
@@ -499,30 +547,34 @@ Station load_station(std::string_view toml_text, const std::string& file) {
           throw InputError(r.where("position"), "antenna is inside building \"" + b.name +
                                                     "\" (below its roof height); put it on the roof or outside");
       st.antennas.push_back(std::move(ant));
-    }
-    check_unique(st.antennas, "antenna", file);
+    });
+    entry("antenna", [&] { check_unique(st.antennas, "antenna", file); });
   }
 
-  if (const auto* a = array_of_tables(root, "operation", file)) {
+  if (const auto* a = tables("operation")) {
     std::size_t i = 0;
-    for (const auto& n : *a) {
+    for (const auto& n : *a) entry("operation", [&] {
       Reader r(*n.as_table(), file, indexed("operation", i++),
                {"name", "transmitter", "feed_line", "antenna", "frequency", "mode", "duty", "on", "off", "group"});
       Operation o = read_operation(r);
+      if (!st.transmitter(o.transmitter) && failed.contains("transmitter")) return void(failed.insert("operation"));
+      if (!o.feed_line.empty() && !st.feed_line(o.feed_line) && failed.contains("feed_line")) return void(failed.insert("operation"));
       if (!st.transmitter(o.transmitter))
         throw InputError(r.where("transmitter"), "unknown transmitter \"" + o.transmitter + "\"");
       if (!o.feed_line.empty() && !st.feed_line(o.feed_line))
         throw InputError(r.where("feed_line"), "unknown feed line \"" + o.feed_line + "\"");
+      if (!st.antenna(o.antenna) && failed.contains("antenna")) return void(failed.insert("operation"));
       if (!st.antenna(o.antenna)) throw InputError(r.where("antenna"), "unknown antenna \"" + o.antenna + "\"");
       st.operations.push_back(std::move(o));
-    }
-    check_unique(st.operations, "operation", file);
+    });
+    entry("operation", [&] { check_unique(st.operations, "operation", file); });
   }
-  if (st.operations.empty())
-    throw InputError(Where{file, 1, "operation"}, "no [[operation]]: nothing to evaluate");
+  if (st.operations.empty() && !failed.contains("operation"))
+    errs.add(InputError(Where{file, 1, "operation"}, "no [[operation]]: nothing to evaluate"));
 
   // Installation elements (issue 6): parsed and validated by the siting module.
-  st.installation = siting::parse_site_elements(root, file);
+  errs.run([&] { st.installation = siting::parse_site_elements(root, file); });
+  errs.throw_if_any();
 
   return st;
 }
