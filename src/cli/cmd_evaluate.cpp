@@ -21,6 +21,7 @@
 #include "report/writers.hpp"
 #include "siting/checks.hpp"
 #include "siting/clearances_toml.hpp"
+#include "station/installation.hpp"
 #include "station/sources.hpp"
 #include "station/station_toml.hpp"
 
@@ -37,13 +38,7 @@ struct EvalOptions {
   unsigned threads = 0;
 };
 
-std::string read_file(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
-  std::ostringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
-}
+std::string read_file(const std::string& path) { return station::read_station_text(path); }
 
 std::optional<limits::Standard> standard_option(const std::string& s) {
   if (s.empty()) return std::nullopt;
@@ -123,6 +118,7 @@ report::LinesSection lines_section(const siting::LinesReport& lr) {
     if (c.actual) lc.actual_m = c.actual->value();
     lc.pass = c.pass();
     lc.note = c.note;
+    lc.diameter = c.diameter;
     s.checks.push_back(lc);
   }
   s.assumptions = lr.assumptions;
@@ -164,7 +160,7 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.meta.evaluated_by = st.evaluator;
   rec.map = site_map(st, built);
   if (!st.installation.empty())
-    rec.lines = lines_section(siting::run_checks(st.installation, siting::builtin_clearance_tables()));
+    rec.lines = lines_section(station::check_installation(st));
   rec.assumptions.push_back("Ground: " + station::to_string(st.site.ground) + ".");
   rec.assumptions.push_back("Body line: " + ev.body_rule + ".");
   rec.assumptions.push_back(fmt::format("Zone grids at {:.3g} m spacing, 2×2 sub-points within 2 m of an antenna.",

@@ -49,6 +49,18 @@ std::string distance_down(const std::optional<double>& m) {
   return fmt::format("{:.1f} m", std::max(0.0, std::floor(*m * 10.0 * (1.0 + 1e-9)) / 10.0));
 }
 
+// Wire diameters (NFPA 70 Table 810.52 check): millimetres to 0.01 mm, required up, actual down.
+std::string check_required(const LineCheck& c) {
+  if (!c.diameter) return distance_up(c.required_m);
+  if (!c.required_m || !std::isfinite(*c.required_m)) return "not evaluated";
+  return fmt::format("{:.2f} mm", std::ceil(*c.required_m * 1e5 * (1.0 - 1e-9)) / 100.0);
+}
+std::string check_actual(const LineCheck& c) {
+  if (!c.diameter) return distance_down(c.actual_m);
+  if (!c.actual_m || !std::isfinite(*c.actual_m)) return "not evaluated";
+  return fmt::format("{:.2f} mm", std::floor(*c.actual_m * 1e5 * (1.0 + 1e-9)) / 100.0);
+}
+
 std::string percent_up(double ratio) {
   if (!std::isfinite(ratio)) return "not evaluated";
   return fmt::format("{:.1f} %", round_percent_up(ratio));

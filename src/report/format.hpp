@@ -16,6 +16,8 @@ std::string power(double watts);                          // 3 significant figur
 std::string power_down(const std::optional<double>& w);   // rounded DOWN, or "not evaluated"
 std::string distance_up(const std::optional<double>& m);  // rounded UP to 0.1 m, or "not evaluated"
 std::string distance_down(const std::optional<double>& m);  // rounded DOWN (an actual clearance)
+std::string check_required(const LineCheck& c);          // distance_up, or a diameter in mm
+std::string check_actual(const LineCheck& c);            // distance_down, or a diameter in mm
 std::string percent_up(double ratio);                     // "212.4 %" rounded UP to 0.1 %
 std::string where(const exposure::SitePoint& p);         // "(12.0, -4.5, 1.0) m"
 std::string verdict_word(const std::string& verdict);     // "WITHIN LIMITS", "EXCEEDS", "NOT EVALUATED"

@@ -194,8 +194,8 @@ std::string to_html(const Record& r) {
   if (r.lines) {
     rows.clear();
     for (const auto& c : r.lines->checks) {
-      rows.push_back({esc(c.rule), esc(c.subject), esc(c.line), esc(fmtx::distance_up(c.required_m)),
-                      esc(fmtx::distance_down(c.actual_m)), badge(c.pass ? "pass" : "fail"), esc(c.source), esc(c.note)});
+      rows.push_back({esc(c.rule), esc(c.subject), esc(c.line), esc(fmtx::check_required(c)),
+                      esc(fmtx::check_actual(c)), badge(c.pass ? "pass" : "fail"), esc(c.source), esc(c.note)});
     }
     h += table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Source", "Note"}, rows);
     if (!r.lines->assumptions.empty()) {

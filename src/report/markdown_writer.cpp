@@ -156,7 +156,7 @@ std::string to_markdown(const Record& r) {
   if (r.lines) {
     rows.clear();
     for (const auto& c : r.lines->checks) {
-      rows.push_back({c.rule, c.subject, c.line, fmtx::distance_up(c.required_m), fmtx::distance_down(c.actual_m),
+      rows.push_back({c.rule, c.subject, c.line, fmtx::check_required(c), fmtx::check_actual(c),
                       "**" + fmtx::verdict_word(c.pass ? "pass" : "fail") + "**", c.source, c.note});
     }
     md += table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Source", "Note"}, rows);

@@ -108,6 +108,7 @@ struct LineCheck {
   std::optional<double> actual_m;
   bool pass = false;
   std::string note;
+  bool diameter = false;  // required/actual are wire diameters (shown in mm), not clearances
 };
 
 struct LinesSection {

@@ -102,8 +102,8 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
     lines.header = {"check", "subject", "power line", "required", "actual", "result", "source"};
     for (const auto& c : r.lines->checks) {
       const std::string v = c.pass ? "pass" : "fail";
-      lines.rows.push_back({c.rule, c.subject, c.line, fmtx::distance_up(c.required_m),
-                            fmtx::distance_down(c.actual_m),
+      lines.rows.push_back({c.rule, c.subject, c.line, fmtx::check_required(c),
+                            fmtx::check_actual(c),
                             paint(fmtx::verdict_word(v), v, options.colour), c.source});
     }
     out << "Power-line clearances\n" << lines.render("  ");

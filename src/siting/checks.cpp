@@ -228,6 +228,7 @@ double tilt_sweep_distance(const Support& s, const ConductorGeometry& line) {
 LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
   LinesReport r;
   r.cautions = line_cautions();
+  r.power_lines = site.power_lines.size();
 
   struct LineInfo {
     const PowerLine* line;
@@ -349,6 +350,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
   }
   for (std::size_t i = 0; i < site.spans.size(); ++i) {
     const Span& sp = site.spans[i];
+    if (sp.rigid) continue;  // a rigid element falls with its support (fall reach of that support)
     const SpanShape& shape = shapes[i];
     const double length = shape.length_m();
     for (const auto& li : lines) {
@@ -389,11 +391,15 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
   // 5. Antenna conductor size (NFPA 70 Table 810.52).
   for (std::size_t i = 0; i < site.spans.size(); ++i) {
     const Span& sp = site.spans[i];
-    if (sp.kind != SpanKind::antenna) continue;
+    if (sp.kind != SpanKind::antenna || sp.rigid) continue;  // Table 810.52 sizes wire spans, not tubes
     const double span_len = (shapes[i].to - shapes[i].from).norm();
     if (!sp.wire) {
-      r.checks.push_back(not_evaluated("antenna conductor size", t.span_size_source, sp.name, "", std::nullopt,
-                                       "no wire class stated (give `wire` from tables/clearances.toml)"));
+      Check c = not_evaluated("antenna conductor size", t.span_size_source, sp.name, "", std::nullopt,
+                              sp.antenna ? "no wire class stated (give `wire` on antenna \"" + *sp.antenna +
+                                               "\", a class from tables/clearances.toml)"
+                                         : "no wire class stated (give `wire` from tables/clearances.toml)");
+      c.diameter = true;
+      r.checks.push_back(c);
       continue;
     }
     const SpanSizeRule* rule = nullptr;
@@ -408,6 +414,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
       c.subject = sp.name;
       c.actual = units::metres(std::round(sp.wire->diameter.value() * 1e5) / 1e5);
       c.status = CheckStatus::fail;
+      c.diameter = true;
       c.note = "material \"" + sp.wire->material +
                "\" is not listed for antenna spans: use hard-drawn copper, copper-clad steel or bronze";
       r.checks.push_back(c);
@@ -422,6 +429,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
     c.required = units::metres(std::round(awg_diameter(rule->max_awg).value() * 1e5) / 1e5);
     c.actual = units::metres(std::round(sp.wire->diameter.value() * 1e5) / 1e5);
     c.status = sp.wire->awg <= rule->max_awg ? CheckStatus::pass : CheckStatus::fail;
+    c.diameter = true;
     r.checks.push_back(c);
   }
 

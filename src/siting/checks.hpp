@@ -31,6 +31,7 @@ struct Check {
   std::optional<units::Length> actual;
   CheckStatus status = CheckStatus::fail;
   std::string note;
+  bool diameter = false;  // required/actual are wire diameters (shown in mm), not clearances
   bool pass() const { return status == CheckStatus::pass; }
 };
 
@@ -38,6 +39,7 @@ struct LinesReport {
   std::vector<Check> checks;
   std::vector<std::string> assumptions;  // what was assumed for unknown inputs
   std::vector<std::string> cautions;     // printed with every output
+  std::size_t power_lines = 0;           // how many power lines the checks were made against
   bool all_pass() const;
   // "pass" when every check passes, otherwise "fail" (a check that could not be evaluated fails).
   std::string verdict() const;

@@ -70,6 +70,7 @@ struct FeedLine {
   std::string line_class;           // a class from tables/feedlines.toml, e.g. "rg-213", "ladder-450"
   units::Length length;
   std::optional<double> swr;        // stated SWR at the antenna; otherwise from the antenna model
+  std::vector<Point3> route;        // where the line runs (3-D points), if given: checked like a span
   int line = 0;
 };
 
@@ -95,6 +96,7 @@ struct Antenna {
   std::optional<double> diameter_m;      // aperture
   std::optional<double> efficiency;      // aperture (0..1)
   std::optional<double> beamwidth_rad;   // collinear/panel horizontal beamwidth (omni if absent)
+  std::optional<siting::WireClass> wire;  // `wire`: class from tables/clearances.toml (NFPA 810.52 check)
   int line = 0;
 };
 
@@ -122,7 +124,10 @@ struct Station {
   std::vector<FeedLine> feed_lines;
   std::vector<Antenna> antennas;
   std::vector<Operation> operations;
-  siting::SiteElements installation;  // [[power_line]], [[support]], [[span]] (issue 6)
+  // [[power_line]], [[support]], [[span]] as written, plus the wires, routes and supports implied
+  // by the antennas and feed lines themselves (station/installation.hpp).
+  siting::SiteElements installation;
+  std::vector<std::string> installation_assumptions;  // what was assumed for the implied elements
 
   const Transmitter* transmitter(const std::string& name) const;
   const FeedLine* feed_line(const std::string& name) const;

@@ -1,5 +1,6 @@
 #include "station/station_toml.hpp"
 
+#include <filesystem>
 #include <fstream>
 #include <set>
 #include <sstream>
@@ -9,7 +10,9 @@
 #include "core/constants.hpp"
 #include "core/quantity_parse.hpp"
 #include "io/embedded.hpp"
+#include "siting/clearances_toml.hpp"
 #include "siting/siting_toml.hpp"
+#include "station/installation.hpp"
 
 namespace standoff::station {
 namespace {
@@ -204,6 +207,37 @@ std::optional<GroundKind> ground_kind(const std::string& s) {
 
 std::string indexed(const std::string& key, std::size_t i) { return key + "[" + std::to_string(i) + "]"; }
 
+// `wire = "14-awg-hard-drawn-copper"`: the conductor, a class of tables/clearances.toml (used by the
+// NFPA 70 Table 810.52 size check of the antenna's wires).
+std::optional<siting::WireClass> antenna_wire_class(const Reader& r) {
+  const auto name = r.opt_string("wire");
+  if (!name) return std::nullopt;
+  const auto& tables = siting::builtin_clearance_tables();
+  if (const siting::WireClass* w = tables.find_wire(*name)) return *w;
+  std::string list;
+  for (const auto& x : tables.wires) list += (list.empty() ? "" : ", ") + x.name;
+  throw InputError(r.where("wire"), "unknown wire class \"" + *name + "\" (known: " + list + ")");
+}
+
+// `route = [["x m", "y m", "z m"], ...]`: where a feed line runs, at least two points.
+std::vector<Point3> feed_line_route(const Reader& r) {
+  std::vector<Point3> route;
+  const toml::node* n = r.node("route");
+  if (!n) return route;
+  const auto* a = n->as_array();
+  const Where w = r.where("route");
+  if (!a || a->size() < 2)
+    throw InputError(w, "expected a route of at least two points [[\"x m\", \"y m\", \"z m\"], ...]");
+  for (const auto& v : *a) {
+    route.push_back(point3(v, Where{w.file, line_of(v), w.field}));
+    if (route.back().z_m < 0.0) throw InputError(Where{w.file, line_of(v), w.field}, "a route point is below ground");
+  }
+  for (std::size_t k = 0; k + 1 < route.size(); ++k)
+    if (route[k].x_m == route[k + 1].x_m && route[k].y_m == route[k + 1].y_m && route[k].z_m == route[k + 1].z_m)
+      throw InputError(w, "two consecutive points of the route are the same");
+  return route;
+}
+
 Antenna read_antenna(const Reader& r) {
   Antenna a;
   a.line = r.line();
@@ -241,6 +275,7 @@ Antenna read_antenna(const Reader& r) {
     a.diameter_m = d->value();
   if (auto e = r.opt_quantity("efficiency", parse_fraction)) a.efficiency = e->value;
   if (auto b = r.opt_quantity("beamwidth", parse_angle)) a.beamwidth_rad = b->value();
+  a.wire = antenna_wire_class(r);
 
   auto need = [&](bool present, const std::string& key) {
     if (!present) throw InputError(r.where_table_key(key), "missing (required for kind = \"" + kind + "\")");
@@ -314,13 +349,22 @@ std::string_view demo_station_text() {
   return t ? *t : std::string_view{};
 }
 
-Station load_station_file(const std::string& path) {
+std::string read_station_text(const std::string& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec))
+    throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
   std::ostringstream ss;
   ss << in.rdbuf();
-  return load_station(ss.str(), path);
+  if (in.bad()) throw InputError(Where{path, 0, ""}, "cannot read the station file");
+  std::string text = ss.str();
+  if (text.find_first_not_of(" \t\r\n") == std::string::npos)
+    throw InputError(Where{path, 1, ""}, "the station file is empty");
+  return text;
 }
+
+Station load_station_file(const std::string& path) { return load_station(read_station_text(path), path); }
 
 Station load_station(std::string_view toml_text, const std::string& file) {
   toml::table root;
@@ -445,7 +489,7 @@ Station load_station(std::string_view toml_text, const std::string& file) {
   if (const auto* a = array_of_tables(root, "feed_line", file)) {
     std::size_t i = 0;
     for (const auto& n : *a) {
-      Reader r(*n.as_table(), file, indexed("feed_line", i++), {"name", "class", "length", "swr"});
+      Reader r(*n.as_table(), file, indexed("feed_line", i++), {"name", "class", "length", "swr", "route"});
       FeedLine f;
       f.line = r.line();
       f.name = r.name();
@@ -456,6 +500,7 @@ Station load_station(std::string_view toml_text, const std::string& file) {
         if (!v || !(*v >= 1.0)) throw InputError(r.where("swr"), "expected a number of 1 or more, e.g. swr = 1.5");
         f.swr = *v;
       }
+      f.route = feed_line_route(r);
       st.feed_lines.push_back(f);
     }
     check_unique(st.feed_lines, "feed_line", file);
@@ -466,7 +511,7 @@ Station load_station(std::string_view toml_text, const std::string& file) {
     for (const auto& n : *a) {
       Reader r(*n.as_table(), file, indexed("antenna", i++),
                {"name", "kind", "position", "height", "azimuth", "length", "wire_diameter", "apex_angle", "elements",
-                "band_centre", "gain", "diameter", "efficiency", "beamwidth", "radials", "radial_length"});
+                "band_centre", "gain", "diameter", "efficiency", "beamwidth", "radials", "radial_length", "wire"});
       Antenna ant = read_antenna(r);
       for (const auto& b : st.site.buildings)
         if (exposure::inside(b.footprint, ant.position) && ant.height_m < b.height_m)
@@ -497,6 +542,9 @@ Station load_station(std::string_view toml_text, const std::string& file) {
 
   // Installation elements (issue 6): parsed and validated by the siting module.
   st.installation = siting::parse_site_elements(root, file);
+  // ... plus every wire, route and support the antennas and feed lines imply (one geometry for the
+  // exposure model and the power-line checks).
+  derive_installation(st);
 
   return st;
 }
