@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <set>
 #include <sstream>
 
 #include "core/constants.hpp"
@@ -94,12 +95,41 @@ double max_extent(const em::Model& m) {
   return d;
 }
 
+// The impedance the feed line sees: the antenna's, through an end-fed antenna's n:1 matching unit
+// (an ideal transformer: Z/n). An end-fed wire without a stated ratio is taken with the usual
+// 49:1 unit (common practice (no source)) rather than unmatched, which would over-state the line
+// loss and so under-state the power radiated.
+std::complex<double> line_side_impedance(const Antenna& a, std::complex<double> z, std::vector<std::string>& notes) {
+  if (a.kind != AntennaKind::end_fed_half_wave) return z;
+  const double n = a.matching_ratio.value_or(49.0);
+  notes.push_back("end-fed matching unit " + num(n) + ":1" + (a.matching_ratio ? "" : " assumed (not stated)") +
+                  ": the line sees the wire's feed impedance / " + num(n) +
+                  "; the unit's own loss is not counted (more power reaches the wire)");
+  return z / n;
+}
+
 struct Solved {
   std::shared_ptr<const em::Solution> solution;
   double gain = 1.0;
   double size_m = 0.0;
   std::vector<std::string> notes;
 };
+
+// An attic or indoor antenna: the building does not shield, so its floors are evaluated. When no
+// zone covers the building's floors, they are added as an uncontrolled zone (the most protective
+// tier: anyone may be indoors).
+void add_indoor_zones(const Station& st, exposure::EvaluationInput& in) {
+  std::set<std::string> done;
+  for (const auto& a : st.antennas) {
+    if (a.inside_building.empty() || !done.insert(a.inside_building).second) continue;
+    bool covered = false;
+    for (const auto& z : st.site.zones) covered |= z.building == a.inside_building;
+    if (covered) continue;
+    for (const auto& b : st.site.buildings)
+      if (b.name == a.inside_building)
+        in.zones.push_back({b.name + " (floors, antenna inside)", limits::Tier::uncontrolled, b.footprint, b.floors_m});
+  }
+}
 
 }  // namespace
 
@@ -127,6 +157,7 @@ Built build(const Station& st, const BuildOptions& options) {
   in.standard = out.standard;
   in.limits_source = table.source();
   for (const auto& z : st.site.zones) in.zones.push_back({z.name, z.tier, z.polygon, z.floors_m});
+  add_indoor_zones(st, in);
   for (const auto& p : st.site.points) in.points.push_back({p.name, p.tier, {p.at.x_m, p.at.y_m, p.at.z_m}});
 
   const power::DutyTable& duties = power::builtin_duty_table();
@@ -154,6 +185,10 @@ Built build(const Station& st, const BuildOptions& options) {
     src.frequency_hz = f_hz;
     src.pep_w = tx.pep.value();
     src.centre = {ant.position.x_m, ant.position.y_m};
+    if (!ant.inside_building.empty())
+      src.notes.push_back("caution: antenna inside building \"" + ant.inside_building +
+                          "\" (attic or indoor): walls and roof do not shield, so the building's floors are "
+                          "evaluated; keep people away from the wires and follow local codes and licensed practice");
 
     // Limits at this frequency for both tiers (outside the table: an error, never extrapolated).
     exposure::SourceLimits lim;
@@ -256,7 +291,7 @@ Built build(const Station& st, const BuildOptions& options) {
         throw InputError(wl, "unknown feed-line class \"" + fl->line_class + "\": expected one of " + line_classes.names());
       power::LoadSpec load = power::LoadSpec::matched_load();
       if (fl->swr) load = power::LoadSpec::from_swr(*fl->swr);
-      else if (solution) load = power::LoadSpec::from_impedance(solution->impedance());
+      else if (solution) load = power::LoadSpec::from_impedance(line_side_impedance(ant, solution->impedance(), src.notes));
       else src.notes.push_back("SWR at the antenna not stated: a matched line assumed (least loss, most power)");
       ci.line = power::LineSpec{*cls, fl->length, load};
     }

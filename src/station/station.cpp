@@ -23,13 +23,19 @@ std::string to_string(AntennaKind k) {
     case AntennaKind::gain_only: return "gain";
     case AntennaKind::collinear: return "collinear";
     case AntennaKind::aperture: return "aperture";
+    case AntennaKind::folded_dipole: return "folded_dipole";
+    case AntennaKind::loop: return "loop";
+    case AntennaKind::end_fed_half_wave: return "end_fed_half_wave";
+    case AntennaKind::ocf_dipole: return "ocf_dipole";
+    case AntennaKind::wires: return "wires";
   }
   return "gain";
 }
 
 bool is_wire(AntennaKind k) {
   return k == AntennaKind::dipole || k == AntennaKind::inverted_v || k == AntennaKind::vertical ||
-         k == AntennaKind::yagi;
+         k == AntennaKind::yagi || k == AntennaKind::folded_dipole || k == AntennaKind::loop ||
+         k == AntennaKind::end_fed_half_wave || k == AntennaKind::ocf_dipole || k == AntennaKind::wires;
 }
 
 namespace {

@@ -75,9 +75,23 @@ struct FeedLine {
 };
 
 // Wire antennas are modelled by the method of moments; the others by screening models.
-enum class AntennaKind { dipole, inverted_v, vertical, yagi, gain_only, collinear, aperture };
+enum class AntennaKind {
+  dipole, inverted_v, vertical, yagi, gain_only, collinear, aperture,
+  folded_dipole,       // two conductors `spacing` apart joined at the ends (em::folded_dipole)
+  loop,                // horizontal regular polygon loop of perimeter `length` (em::horizontal_loop)
+  end_fed_half_wave,   // wire fed at one end through a matching unit, against a short counterpoise
+  ocf_dipole,          // off-centre-fed dipole: fed at `feed_position` along the wire
+  wires                // free-form list of straight wires with one feed
+};
 std::string to_string(AntennaKind k);
 bool is_wire(AntennaKind k);
+
+// One straight wire of a free-form antenna (kind = "wires"), site frame.
+struct FreeWire {
+  Point3 from;
+  Point3 to;
+  std::optional<double> diameter_m;  // default: the antenna's wire_diameter
+};
 
 struct Antenna {
   std::string name;
@@ -97,6 +111,17 @@ struct Antenna {
   std::optional<double> efficiency;      // aperture (0..1)
   std::optional<double> beamwidth_rad;   // collinear/panel horizontal beamwidth (omni if absent)
   std::optional<siting::WireClass> wire;  // `wire`: class from tables/clearances.toml (NFPA 810.52 check)
+  std::optional<double> spacing_m;              // folded dipole: conductor spacing, axis to axis
+  std::optional<double> second_wire_diameter_m;  // folded dipole: the unfed conductor (default: the same)
+  int sides = 4;                                 // loop
+  std::optional<double> feed_fraction;           // ocf_dipole, wires: feed along the (feed) wire from its start
+  std::optional<std::pair<double, double>> end_heights_m;  // dipole/ocf: heights of the two ends (sloping)
+  std::optional<double> end_height_m;            // end-fed: height of the far end (default: the feed height)
+  std::optional<double> counterpoise_m;          // end-fed: counterpoise length (default 5 % of the wire)
+  std::optional<double> matching_ratio;          // end-fed: impedance ratio n of the n:1 matching unit
+  std::vector<FreeWire> free_wires;              // kind = "wires"
+  int feed_wire = 0;                             // kind = "wires": index of the fed wire (0-based)
+  std::string inside_building;                   // attic/indoor antenna: the building it is in
   int line = 0;
 };
 

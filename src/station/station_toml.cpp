@@ -1,5 +1,6 @@
 #include "station/station_toml.hpp"
 
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <set>
@@ -192,6 +193,11 @@ std::optional<AntennaKind> antenna_kind(const std::string& s) {
   if (s == "gain") return AntennaKind::gain_only;
   if (s == "collinear") return AntennaKind::collinear;
   if (s == "aperture") return AntennaKind::aperture;
+  if (s == "folded_dipole") return AntennaKind::folded_dipole;
+  if (s == "loop") return AntennaKind::loop;
+  if (s == "end_fed_half_wave") return AntennaKind::end_fed_half_wave;
+  if (s == "ocf_dipole") return AntennaKind::ocf_dipole;
+  if (s == "wires") return AntennaKind::wires;
   return std::nullopt;
 }
 
@@ -238,6 +244,117 @@ std::vector<Point3> feed_line_route(const Reader& r) {
   return route;
 }
 
+double length_value(const Reader& r, const std::string& key) {
+  return r.quantity(key, [](std::string_view t, const Where& w) { return parse_length(t, w); }).value();
+}
+
+// The keys that shape the wire of the newer kinds: `end_heights` (sloping dipole), `end_height`,
+// `counterpoise`, `matching_ratio` (end-fed), `spacing`, `second_wire_diameter` (folded dipole),
+// `sides` (loop), `feed_position` (OCF, wires) and `wires` + `feed_wire` (free-form).
+void read_wire_shape(const Reader& r, Antenna& a) {
+  const bool dipole_like = a.kind == AntennaKind::dipole || a.kind == AntennaKind::ocf_dipole;
+  auto only_for = [&](const std::string& key, bool allowed, const std::string& kinds) {
+    if (r.has(key) && !allowed) throw InputError(r.where(key), "only allowed for kind = " + kinds);
+  };
+  only_for("end_heights", dipole_like, "\"dipole\" or \"ocf_dipole\"");
+  only_for("end_height", a.kind == AntennaKind::end_fed_half_wave, "\"end_fed_half_wave\"");
+  only_for("counterpoise", a.kind == AntennaKind::end_fed_half_wave, "\"end_fed_half_wave\"");
+  only_for("matching_ratio", a.kind == AntennaKind::end_fed_half_wave, "\"end_fed_half_wave\"");
+  only_for("spacing", a.kind == AntennaKind::folded_dipole, "\"folded_dipole\"");
+  only_for("second_wire_diameter", a.kind == AntennaKind::folded_dipole, "\"folded_dipole\"");
+  only_for("sides", a.kind == AntennaKind::loop, "\"loop\"");
+  only_for("feed_position", a.kind == AntennaKind::ocf_dipole || a.kind == AntennaKind::wires,
+           "\"ocf_dipole\" or \"wires\"");
+  only_for("wires", a.kind == AntennaKind::wires, "\"wires\"");
+  only_for("feed_wire", a.kind == AntennaKind::wires, "\"wires\"");
+
+  if (r.has("end_heights")) {
+    if (r.has("height"))
+      throw InputError(r.where("height"), "give either height or end_heights (a sloping wire), not both");
+    const auto hs = heights(r, "end_heights");
+    if (hs.size() != 2) throw InputError(r.where("end_heights"), "expected two heights: [\"end 1\", \"end 2\"]");
+    a.end_heights_m = std::make_pair(hs[0], hs[1]);
+    a.height_m = 0.5 * (hs[0] + hs[1]);
+  }
+  if (r.has("end_height")) a.end_height_m = length_value(r, "end_height");
+  if (r.has("counterpoise")) {
+    a.counterpoise_m = length_value(r, "counterpoise");
+    if (!(*a.counterpoise_m > 0.0)) throw InputError(r.where("counterpoise"), "must be greater than zero");
+  }
+  if (const toml::node* n = r.node("matching_ratio")) {
+    const auto* t = n->as_string();
+    double ratio = 0.0;
+    if (t) {
+      const std::string v = t->get();
+      const auto colon = v.find(':');
+      try {
+        if (colon != std::string::npos && v.substr(colon + 1) == "1") ratio = std::stod(v.substr(0, colon));
+      } catch (const std::exception&) {
+        ratio = 0.0;
+      }
+    }
+    if (!(ratio >= 1.0 && ratio <= 1000.0))
+      throw InputError(r.where("matching_ratio"), "expected an impedance ratio such as \"49:1\" (1:1 to 1000:1)");
+    a.matching_ratio = ratio;
+  }
+  if (r.has("spacing")) {
+    a.spacing_m = length_value(r, "spacing");
+    if (!(*a.spacing_m > 0.0)) throw InputError(r.where("spacing"), "must be greater than zero");
+  }
+  if (r.has("second_wire_diameter")) {
+    a.second_wire_diameter_m = length_value(r, "second_wire_diameter");
+    if (!(*a.second_wire_diameter_m > 0.0))
+      throw InputError(r.where("second_wire_diameter"), "must be greater than zero");
+  }
+  if (auto n = r.opt_int("sides")) {
+    if (*n < 3 || *n > 64) throw InputError(r.where("sides"), "must be 3 to 64");
+    a.sides = *n;
+  }
+  if (auto f = r.opt_quantity("feed_position", parse_fraction)) {
+    if (!(f->value > 0.0 && f->value < 1.0)) throw InputError(r.where("feed_position"), "must be between 0 % and 100 %");
+    a.feed_fraction = f->value;
+  }
+  if (a.kind != AntennaKind::wires) return;
+  for (const char* key : {"position", "height", "azimuth", "length"})
+    if (r.has(key))
+      throw InputError(r.where(key), "not used with kind = \"wires\": the wires give the geometry (site frame)");
+  const toml::node* n = r.node("wires");
+  const auto* arr = n ? n->as_array() : nullptr;
+  if (!arr || arr->empty())
+    throw InputError(n ? r.where("wires") : r.where_table_key("wires"),
+                     "expected wires = [{ from = [\"x m\", \"y m\", \"z m\"], to = [...] }, ...]");
+  std::size_t i = 0;
+  for (const auto& w : *arr) {
+    const std::string field = r.path() + ".wires[" + std::to_string(i++) + "]";
+    const auto* t = w.as_table();
+    if (!t) throw InputError(Where{r.file(), line_of(w), field}, "expected a table { from = [...], to = [...] }");
+    Reader wr(*t, r.file(), field, {"from", "to", "diameter"});
+    FreeWire fw;
+    if (!wr.has("from")) throw InputError(wr.where_table_key("from"), "missing (required)");
+    if (!wr.has("to")) throw InputError(wr.where_table_key("to"), "missing (required)");
+    fw.from = point3(*wr.node("from"), wr.where("from"));
+    fw.to = point3(*wr.node("to"), wr.where("to"));
+    if (fw.from.z_m < 0.0 || fw.to.z_m < 0.0) throw InputError(wr.where("from"), "a wire end is below ground");
+    const double dx = fw.to.x_m - fw.from.x_m, dy = fw.to.y_m - fw.from.y_m, dz = fw.to.z_m - fw.from.z_m;
+    if (std::sqrt(dx * dx + dy * dy + dz * dz) < 1e-3) throw InputError(wr.where("to"), "the wire has no length");
+    if (wr.has("diameter")) {
+      fw.diameter_m = length_value(wr, "diameter");
+      if (!(*fw.diameter_m > 0.0)) throw InputError(wr.where("diameter"), "must be greater than zero");
+    }
+    a.free_wires.push_back(fw);
+  }
+  const auto fw = r.opt_int("feed_wire");
+  if (!fw) throw InputError(r.where_table_key("feed_wire"), "missing (required for kind = \"wires\"): the fed wire, 1 = the first");
+  if (*fw < 1 || static_cast<std::size_t>(*fw) > a.free_wires.size())
+    throw InputError(r.where("feed_wire"), "must be 1 to " + std::to_string(a.free_wires.size()) + " (a wire of the list)");
+  a.feed_wire = *fw - 1;
+  const FreeWire& fed = a.free_wires[static_cast<std::size_t>(a.feed_wire)];
+  const double t = a.feed_fraction.value_or(0.5);
+  a.position.x_m = fed.from.x_m + t * (fed.to.x_m - fed.from.x_m);
+  a.position.y_m = fed.from.y_m + t * (fed.to.y_m - fed.from.y_m);
+  a.height_m = fed.from.z_m + t * (fed.to.z_m - fed.from.z_m);
+}
+
 Antenna read_antenna(const Reader& r) {
   Antenna a;
   a.line = r.line();
@@ -247,15 +364,20 @@ Antenna read_antenna(const Reader& r) {
   if (!k)
     throw InputError(r.where("kind"),
                      "unknown antenna kind \"" + kind + "\": expected dipole, inverted_v, vertical, yagi, gain, "
-                     "collinear or aperture");
+                     "collinear, aperture, folded_dipole, loop, end_fed_half_wave, ocf_dipole or wires");
   a.kind = *k;
-  a.position = plan_point(*[&]() -> const toml::node* {
-    if (!r.has("position")) throw InputError(r.where_table_key("position"), "missing (required)");
-    return r.node("position");
-  }(), r.where("position"));
-  const double h = r.quantity("height", [](std::string_view t, const Where& w) { return len(t, w); });
-  if (h < 0.0) throw InputError(r.where("height"), "antenna is below ground (height " + std::to_string(h) + " m)");
-  a.height_m = h;
+  read_wire_shape(r, a);  // end heights, free-form wires (may set the position and height)
+  if (a.kind != AntennaKind::wires) {
+    a.position = plan_point(*[&]() -> const toml::node* {
+      if (!r.has("position")) throw InputError(r.where_table_key("position"), "missing (required)");
+      return r.node("position");
+    }(), r.where("position"));
+  }
+  if (a.kind != AntennaKind::wires && !a.end_heights_m) {
+    const double h = r.quantity("height", [](std::string_view t, const Where& w) { return len(t, w); });
+    if (h < 0.0) throw InputError(r.where("height"), "antenna is below ground (height " + std::to_string(h) + " m)");
+    a.height_m = h;
+  }
   if (auto az = r.opt_quantity("azimuth", parse_angle)) a.azimuth_rad = az->value();
   if (auto l = r.opt_quantity("length", [](std::string_view t, const Where& w) { return parse_length(t, w); }))
     a.length_m = l->value();
@@ -287,7 +409,27 @@ Antenna read_antenna(const Reader& r) {
   positive(a.wire_diameter_m, "wire_diameter");
   positive(a.diameter_m, "diameter");
   switch (a.kind) {
-    case AntennaKind::dipole: need(a.length_m.has_value(), "length"); break;
+    case AntennaKind::dipole:
+    case AntennaKind::ocf_dipole:
+      need(a.length_m.has_value(), "length");
+      if (a.kind == AntennaKind::ocf_dipole) need(a.feed_fraction.has_value(), "feed_position");
+      if (a.end_heights_m && !(std::abs(a.end_heights_m->second - a.end_heights_m->first) < *a.length_m))
+        throw InputError(r.where("end_heights"), "the ends differ in height by more than the wire's length");
+      break;
+    case AntennaKind::folded_dipole:
+      need(a.length_m.has_value(), "length");
+      need(a.spacing_m.has_value(), "spacing");
+      if (!(*a.spacing_m < 0.1 * *a.length_m))
+        throw InputError(r.where("spacing"), "must be less than a tenth of the length (a folded dipole, not a loop)");
+      break;
+    case AntennaKind::loop: need(a.length_m.has_value(), "length"); break;
+    case AntennaKind::end_fed_half_wave:
+      need(a.length_m.has_value(), "length");
+      if (a.end_height_m && !(std::abs(*a.end_height_m - a.height_m) < *a.length_m))
+        throw InputError(r.where("end_height"), "the ends differ in height by more than the wire's length");
+      if (a.end_height_m && *a.end_height_m < 0.0) throw InputError(r.where("end_height"), "below ground");
+      break;
+    case AntennaKind::wires: break;
     case AntennaKind::vertical:
       need(a.length_m.has_value(), "length");
       if (a.height_m > 0.0 && a.radials > 0) need(a.radial_length_m.has_value(), "radial_length");
@@ -511,12 +653,14 @@ Station load_station(std::string_view toml_text, const std::string& file) {
     for (const auto& n : *a) {
       Reader r(*n.as_table(), file, indexed("antenna", i++),
                {"name", "kind", "position", "height", "azimuth", "length", "wire_diameter", "apex_angle", "elements",
-                "band_centre", "gain", "diameter", "efficiency", "beamwidth", "radials", "radial_length", "wire"});
+                "band_centre", "gain", "diameter", "efficiency", "beamwidth", "radials", "radial_length", "wire",
+                "end_heights", "end_height", "counterpoise", "matching_ratio", "spacing", "second_wire_diameter",
+                "sides", "feed_position", "wires", "feed_wire"});
       Antenna ant = read_antenna(r);
+      // An attic or indoor antenna is allowed: the building does not shield (station/sources.cpp
+      // evaluates the building's floors and adds a caution).
       for (const auto& b : st.site.buildings)
-        if (exposure::inside(b.footprint, ant.position) && ant.height_m < b.height_m)
-          throw InputError(r.where("position"), "antenna is inside building \"" + b.name +
-                                                    "\" (below its roof height); put it on the roof or outside");
+        if (exposure::inside(b.footprint, ant.position) && ant.height_m < b.height_m) ant.inside_building = b.name;
       st.antennas.push_back(std::move(ant));
     }
     check_unique(st.antennas, "antenna", file);
