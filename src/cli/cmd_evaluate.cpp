@@ -35,8 +35,17 @@ struct EvalOptions {
   const CLI::Option* out_option = nullptr;  // given as bare `--out`: write to reports/<station-name>/
   bool json = false;
   std::string standard;
+  std::string tables;  // --tables DIR: user feed-line / duty tables beside the built-in ones
   unsigned threads = 0;
 };
+
+// Applies --tables DIR to the build options; the tables live as long as `holder`.
+void use_tables(const std::string& dir, station::UserTables& holder, station::BuildOptions& bo) {
+  if (dir.empty()) return;
+  holder = station::load_user_tables(dir);
+  if (holder.feedlines) bo.user_feedlines = &*holder.feedlines;
+  if (holder.duties) bo.user_duties = &*holder.duties;
+}
 
 std::string read_file(const std::string& path) { return station::read_station_text(path); }
 
@@ -143,6 +152,8 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   const station::Station st = station::load_station(text, file_for_messages);
   station::BuildOptions bo;
   bo.standard = standard_option(o.standard);
+  station::UserTables user_tables;
+  use_tables(o.tables, user_tables, bo);
   const station::Built built = station::build(st, bo);
 
   exposure::EvaluationOptions eo;
@@ -194,6 +205,8 @@ void common_options(CLI::App* sub, const std::shared_ptr<EvalOptions>& o) {
                        ->expected(0, 1);
   sub->add_flag("--json", o->json, "Print the evaluation record as JSON");
   sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
+  sub->add_option("--tables", o->tables,
+                  "Directory with user tables (feedlines.toml, duty.toml) used beside the built-in ones");
   sub->add_option("--threads", o->threads, "Worker threads for the grid (default: all cores)")
       ->check(CLI::Range(1u, 256u));
 }
@@ -203,6 +216,7 @@ struct FieldOptions {
   std::string at;
   std::string operation;
   std::string standard;
+  std::string tables;
   bool json = false;
 };
 
@@ -233,6 +247,8 @@ int run_field(const FieldOptions& o, std::ostream& out) {
   station::BuildOptions bo;
   bo.standard = standard_option(o.standard);
   if (!o.operation.empty()) bo.only_operation = o.operation;
+  station::UserTables user_tables;
+  use_tables(o.tables, user_tables, bo);
   const station::Built built = station::build(st, bo);
 
   nlohmann::json j;
@@ -323,6 +339,7 @@ void add_evaluate(CLI::App& root, Commands& commands) {
     sub->add_option("--at", o->at, "Point X,Y,Z in the site frame with units, e.g. 12m,-4m,1.5m")->required();
     sub->add_option("--operation", o->operation, "Only this operation (default: every operation)");
     sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6");
+    sub->add_option("--tables", o->tables, "Directory with user tables (feedlines.toml, duty.toml)");
     sub->add_flag("--json", o->json, "Print JSON");
     commands.push_back({sub, [o](std::ostream& out, std::ostream&) { return run_field(*o, out); }});
   }

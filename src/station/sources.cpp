@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <filesystem>
+#include <fstream>
 #include <set>
 #include <sstream>
 
@@ -147,6 +149,40 @@ em::Ground em_ground(GroundKind g) {
   return em::free_space();
 }
 
+UserTables load_user_tables(const std::string& dir) {
+  namespace fs = std::filesystem;
+  const Where w{"command line", 0, "--tables"};
+  std::error_code ec;
+  if (!fs::is_directory(dir, ec)) throw InputError(w, "\"" + dir + "\" is not a directory");
+  auto read = [&](const fs::path& p) -> std::optional<std::string> {
+    if (!fs::is_regular_file(p, ec)) return std::nullopt;
+    std::ifstream in(p, std::ios::binary);
+    if (!in) throw InputError(Where{p.string(), 0, ""}, "cannot read the table file");
+    std::ostringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
+  };
+  UserTables t;
+  const fs::path fl = fs::path(dir) / "feedlines.toml";
+  const fs::path du = fs::path(dir) / "duty.toml";
+  if (auto text = read(fl)) {
+    t.feedlines = power::load_feedline_table(*text, fl.string());
+    for (const auto& l : t.feedlines->lines)
+      if (power::builtin_feedline_table().find(l.name))
+        throw InputError(Where{fl.string(), l.source_line, "name"},
+                         "line class \"" + l.name + "\" is built in: give the user class another name");
+  }
+  if (auto text = read(du)) {
+    t.duties = power::load_duty_table(*text, du.string());
+    for (const auto& m : t.duties->modes)
+      if (power::builtin_duty_table().find(m.name))
+        throw InputError(Where{du.string(), 0, "name"}, "mode \"" + m.name + "\" is built in: give the user mode another name");
+  }
+  if (!t.feedlines && !t.duties)
+    throw InputError(w, "\"" + dir + "\" holds neither feedlines.toml nor duty.toml");
+  return t;
+}
+
 Built build(const Station& st, const BuildOptions& options) {
   Built out;
   out.standard = options.standard ? *options.standard : st.standard.value_or(limits::Standard::fcc);
@@ -215,9 +251,11 @@ Built build(const Station& st, const BuildOptions& options) {
     ci.frequency = op.frequency;
     if (!op.mode.empty()) {
       const power::DutyMode* m = duties.find(op.mode);
+      if (!m && options.user_duties) m = options.user_duties->find(op.mode);
       if (!m)
         throw InputError(where_in(st, "operation", oi, op.line, "mode"),
-                         "unknown mode \"" + op.mode + "\": expected one of " + duties.names());
+                         "unknown mode \"" + op.mode + "\": expected one of " + duties.names() +
+                             (options.user_duties ? ", " + options.user_duties->names() : std::string()));
       ci.duty = m->duty;
       ci.duty_source = "mode " + m->name + ", " + m->source;
     } else {
@@ -285,10 +323,12 @@ Built build(const Station& st, const BuildOptions& options) {
 
     // Feed line, with the antenna's own impedance when it is modelled.
     if (fl) {
-      const power::FeedLine* cls = line_classes.find(fl->line_class);
+      const power::FeedLine* cls = fl->inline_line ? &*fl->inline_line : line_classes.find(fl->line_class);
+      if (!cls && options.user_feedlines) cls = options.user_feedlines->find(fl->line_class);
       const Where wl = where_in(st, "feed_line", index_of(st.feed_lines, fl), fl->line, "class");
       if (!cls)
-        throw InputError(wl, "unknown feed-line class \"" + fl->line_class + "\": expected one of " + line_classes.names());
+        throw InputError(wl, "unknown feed-line class \"" + fl->line_class + "\": expected one of " + line_classes.names() +
+                                 (options.user_feedlines ? ", " + options.user_feedlines->names() : std::string()));
       power::LoadSpec load = power::LoadSpec::matched_load();
       if (fl->swr) load = power::LoadSpec::from_swr(*fl->swr);
       else if (solution) load = power::LoadSpec::from_impedance(line_side_impedance(ant, solution->impedance(), src.notes));

@@ -11,6 +11,7 @@
 #include "em/solve.hpp"
 #include "exposure/evaluate.hpp"
 #include "limits/limits.hpp"
+#include "power/power_tables_toml.hpp"
 #include "station/station.hpp"
 
 namespace standoff::station {
@@ -18,7 +19,18 @@ namespace standoff::station {
 struct BuildOptions {
   std::optional<limits::Standard> standard;  // overrides the station file's standard (--standard)
   std::optional<std::string> only_operation;  // build just this operation (for `standoff field`)
+  // User tables given with --tables DIR, looked up beside the built-in ones (null: none).
+  const power::FeedLineTable* user_feedlines = nullptr;
+  const power::DutyTable* user_duties = nullptr;
 };
+
+// The user tables of a --tables directory: DIR/feedlines.toml and/or DIR/duty.toml. InputError
+// if DIR is not a directory, holds neither file, or a user class repeats a built-in name.
+struct UserTables {
+  std::optional<power::FeedLineTable> feedlines;
+  std::optional<power::DutyTable> duties;
+};
+UserTables load_user_tables(const std::string& dir);
 
 // Everything the evaluation needs, plus the solved wire models (for the report's map and notes).
 struct Built {

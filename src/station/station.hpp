@@ -13,6 +13,7 @@
 #include "core/units.hpp"
 #include "exposure/geometry.hpp"
 #include "limits/limits.hpp"
+#include "power/feedline.hpp"
 #include "siting/site.hpp"
 
 namespace standoff::station {
@@ -68,6 +69,9 @@ struct Transmitter {
 struct FeedLine {
   std::string name;
   std::string line_class;           // a class from tables/feedlines.toml, e.g. "rg-213", "ladder-450"
+  // A line defined in the station file itself (Z0 + matched-loss points, or parallel-wire
+  // geometry) instead of a class; empty line_class then.
+  std::optional<power::FeedLine> inline_line;
   units::Length length;
   std::optional<double> swr;        // stated SWR at the antenna; otherwise from the antenna model
   std::vector<Point3> route;        // where the line runs (3-D points), if given: checked like a span

@@ -225,6 +225,109 @@ std::optional<siting::WireClass> antenna_wire_class(const Reader& r) {
   throw InputError(r.where("wire"), "unknown wire class \"" + *name + "\" (known: " + list + ")");
 }
 
+// "0.6 dB/100 ft" or "2 dB per 100 m": a matched loss per length, returned in dB per 100 m.
+double loss_per_100m(const std::string& text, const Where& w) {
+  std::size_t db = text.find("dB");
+  if (db == std::string::npos) throw InputError(w, "expected a loss per length such as \"0.6 dB/100 ft\"");
+  double value = 0.0;
+  try {
+    std::size_t used = 0;
+    value = std::stod(text.substr(0, db), &used);
+    if (text.substr(0, db).find_first_not_of(" \t", used) != std::string::npos) throw std::invalid_argument("");
+  } catch (const std::exception&) {
+    throw InputError(w, "expected a loss per length such as \"0.6 dB/100 ft\", got \"" + text + "\"");
+  }
+  std::string rest = text.substr(db + 2);
+  const auto start = rest.find_first_not_of(" \t");
+  rest = start == std::string::npos ? "" : rest.substr(start);
+  if (rest.rfind("/", 0) == 0) rest = rest.substr(1);
+  else if (rest.rfind("per ", 0) == 0) rest = rest.substr(4);
+  else throw InputError(w, "expected a loss per length such as \"0.6 dB/100 ft\", got \"" + text + "\"");
+  const double per = parse_length(rest, w).value();
+  if (!(per > 0.0) || !(value >= 0.0) || !std::isfinite(value))
+    throw InputError(w, "expected a positive loss per positive length, got \"" + text + "\"");
+  return value * 100.0 / per;
+}
+
+// A feed line defined inline: `z0` + `velocity_factor` + `matched_loss = [["14 MHz",
+// "0.3 dB/100 ft"], ...]` (one point: scaled by the smaller of the √f and f laws; two or more:
+// fitted k1·√f + k2·f and refused outside the points), or parallel-wire geometry
+// `conductor_diameter` + `spacing` + `velocity_factor` + `material` (power/feedline.hpp).
+std::optional<power::FeedLine> inline_feed_line(const Reader& r, const std::string& name) {
+  const bool loss_form = r.has("z0") || r.has("matched_loss");
+  const bool wire_form = r.has("conductor_diameter") || r.has("spacing") || r.has("material");
+  const bool has_class = r.has("class");
+  if (has_class && (loss_form || wire_form))
+    throw InputError(r.where("class"), "give either class or an inline line (z0 + matched_loss, or "
+                                       "conductor_diameter + spacing), not both");
+  if (loss_form && wire_form)
+    throw InputError(r.where("z0"), "give either z0 + matched_loss or parallel-wire geometry, not both");
+  if (!has_class && !loss_form && !wire_form)
+    throw InputError(r.where_table_key("class"), "missing: give a class from tables/feedlines.toml (or --tables) or "
+                                                 "define the line inline (z0 + matched_loss, or conductor_diameter + spacing)");
+  if (has_class) return std::nullopt;
+  double vf = 1.0;
+  if (const toml::node* n = r.node("velocity_factor")) {
+    const auto v = n->value<double>();
+    if (!v || !(*v > 0.0 && *v <= 1.0)) throw InputError(r.where("velocity_factor"), "expected a number above 0, at most 1");
+    vf = *v;
+  } else {
+    throw InputError(r.where_table_key("velocity_factor"), "missing (required for an inline line)");
+  }
+  if (wire_form) {
+    power::ParallelWireGeometry g;
+    g.conductor_diameter = r.quantity("conductor_diameter", [](std::string_view t, const Where& w) { return parse_length(t, w); });
+    g.spacing = r.quantity("spacing", [](std::string_view t, const Where& w) { return parse_length(t, w); });
+    if (!(g.conductor_diameter.value() > 0.0)) throw InputError(r.where("conductor_diameter"), "must be greater than zero");
+    if (!(g.spacing.value() > g.conductor_diameter.value()))
+      throw InputError(r.where("spacing"), "centre-to-centre spacing must exceed the conductor diameter");
+    g.velocity_factor = vf;
+    const std::string mat = r.string("material");
+    if (mat == "copper") g.material = power::ConductorMaterial::copper;
+    else if (mat == "copper-clad-steel") g.material = power::ConductorMaterial::copper_clad_steel;
+    else throw InputError(r.where("material"), "unknown material \"" + mat + "\"; expected copper or copper-clad-steel");
+    power::FeedLine l = power::parallel_wire_line(name + " (inline)", g);
+    l.description = "parallel-wire line defined in the station file";
+    l.source_line = r.line();
+    return l;
+  }
+  const auto z0 = r.quantity("z0", parse_impedance);
+  if (!(z0.value() > 0.0)) throw InputError(r.where("z0"), "must be greater than zero");
+  const toml::node* n = r.node("matched_loss");
+  const auto* arr = n ? n->as_array() : nullptr;
+  const Where wl = n ? r.where("matched_loss") : r.where_table_key("matched_loss");
+  if (!arr || arr->empty())
+    throw InputError(wl, "expected matched_loss = [[\"14 MHz\", \"0.3 dB/100 ft\"], ...] (at least one point)");
+  std::vector<power::AttenuationPoint> pts;
+  for (const auto& p : *arr) {
+    const Where w{wl.file, line_of(p), wl.field};
+    const auto* pair = p.as_array();
+    if (!pair || pair->size() != 2 || !(*pair)[0].is_string() || !(*pair)[1].is_string())
+      throw InputError(w, "expected a point [\"frequency\", \"loss per length\"], e.g. [\"14 MHz\", \"0.3 dB/100 ft\"]");
+    const double f = parse_frequency(*(*pair)[0].value<std::string>(), w).value();
+    if (!(f > 0.0)) throw InputError(w, "the frequency must be greater than zero");
+    pts.push_back({f / 1e6, loss_per_100m(*(*pair)[1].value<std::string>(), w)});
+  }
+  for (std::size_t k = 1; k < pts.size(); ++k)
+    if (!(pts[k].f_mhz > pts[k - 1].f_mhz)) throw InputError(wl, "frequencies must rise strictly");
+  power::FeedLine l;
+  if (pts.size() == 1) {
+    l = power::user_line(name + " (inline)", power::UserLineData{z0, pts[0].db_per_100m,
+                                                                  units::hertz(pts[0].f_mhz * 1e6), vf});
+  } else {
+    l.name = name + " (inline)";
+    l.kind = power::LineKind::coax;
+    l.z0 = z0;
+    l.velocity_factor = vf;
+    l.coax = power::fit_coax(std::move(pts));
+    l.confidence = "confirmed";  // the user's own data, as stated
+  }
+  l.description = "line defined in the station file";
+  l.source = "the station file (" + r.file() + ")";
+  l.source_line = r.line();
+  return l;
+}
+
 // `route = [["x m", "y m", "z m"], ...]`: where a feed line runs, at least two points.
 std::vector<Point3> feed_line_route(const Reader& r) {
   std::vector<Point3> route;
@@ -631,11 +734,14 @@ Station load_station(std::string_view toml_text, const std::string& file) {
   if (const auto* a = array_of_tables(root, "feed_line", file)) {
     std::size_t i = 0;
     for (const auto& n : *a) {
-      Reader r(*n.as_table(), file, indexed("feed_line", i++), {"name", "class", "length", "swr", "route"});
+      Reader r(*n.as_table(), file, indexed("feed_line", i++),
+               {"name", "class", "length", "swr", "route", "z0", "velocity_factor", "matched_loss",
+                "conductor_diameter", "spacing", "material"});
       FeedLine f;
       f.line = r.line();
       f.name = r.name();
-      f.line_class = r.string("class");
+      f.inline_line = inline_feed_line(r, f.name);
+      if (!f.inline_line) f.line_class = r.string("class");
       f.length = r.quantity("length", [](std::string_view t, const Where& w) { return parse_length(t, w); });
       if (const toml::node* sw = r.node("swr")) {
         const auto v = sw->value<double>();
