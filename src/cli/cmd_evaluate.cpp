@@ -79,7 +79,8 @@ report::SiteMap site_map(const station::Station& st, const station::Built& built
     for (double f : b.floors_m) floors += (floors.empty() ? "" : ", ") + metres(f);
     m.buildings.push_back({b.name, rpoly(b.footprint), "floors at " + floors + "; height " + metres(b.height_m)});
   }
-  for (const auto& z : st.site.zones) m.zones.push_back({z.name, z.tier, rpoly(z.polygon)});
+  for (const auto& z : st.site.zones)
+    if (z.kind == station::ZoneKind::people) m.zones.push_back({z.name, z.tier, rpoly(z.polygon)});
   std::set<std::string> drawn;
   for (std::size_t i = 0; i < built.input.sources.size(); ++i) {
     const auto& src = built.input.sources[i];
@@ -172,6 +173,12 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.map = site_map(st, built);
   if (!st.installation.empty())
     rec.lines = lines_section(station::check_installation(st));
+  for (const auto& z : st.site.zones)
+    if (z.kind == station::ZoneKind::keep_out)
+      rec.assumptions.push_back("Keep-out area \"" + z.name + "\"" + (z.barrier.empty() ? "" : " (" + z.barrier + ")") +
+                                ": not evaluated for " +
+                                (z.keeps_out == station::KeepsOut::everyone ? "anyone" : "the uncontrolled tier") +
+                                " — the barrier must stay in place and closed while transmitting.");
   rec.assumptions.push_back("Ground: " + station::to_string(st.site.ground) + ".");
   rec.assumptions.push_back("Body line: " + ev.body_rule + ".");
   rec.assumptions.push_back(fmt::format("Zone grids at {:.3g} m spacing, 2×2 sub-points within 2 m of an antenna.",

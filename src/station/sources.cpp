@@ -117,6 +117,21 @@ struct Solved {
   std::vector<std::string> notes;
 };
 
+// The zones where people can be, each without its holes and without the keep-out areas that
+// keep its tier out (a keep-out area is not evaluated for the people it keeps out).
+void add_people_zones(const Station& st, exposure::EvaluationInput& in) {
+  for (const auto& z : st.site.zones) {
+    if (z.kind != ZoneKind::people) continue;
+    exposure::ZoneInput zi{z.name, z.tier, z.polygon, z.floors_m, z.holes};
+    for (const auto& k : st.site.zones) {
+      if (k.kind != ZoneKind::keep_out) continue;
+      if (k.keeps_out == KeepsOut::uncontrolled && z.tier != limits::Tier::uncontrolled) continue;
+      if (geometry::rings_overlap(k.polygon, z.polygon)) zi.holes.push_back(k.polygon);
+    }
+    in.zones.push_back(std::move(zi));
+  }
+}
+
 // An attic or indoor antenna: the building does not shield, so its floors are evaluated. When no
 // zone covers the building's floors, they are added as an uncontrolled zone (the most protective
 // tier: anyone may be indoors).
@@ -192,7 +207,7 @@ Built build(const Station& st, const BuildOptions& options) {
   in.station = st.name;
   in.standard = out.standard;
   in.limits_source = table.source();
-  for (const auto& z : st.site.zones) in.zones.push_back({z.name, z.tier, z.polygon, z.floors_m});
+  add_people_zones(st, in);
   add_indoor_zones(st, in);
   for (const auto& p : st.site.points) in.points.push_back({p.name, p.tier, {p.at.x_m, p.at.y_m, p.at.z_m}});
 

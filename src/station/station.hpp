@@ -36,9 +36,18 @@ struct Building {
   int line = 0;
 };
 
+// A zone where people can be, or a keep-out area (fenced or no access) that the other zones
+// exclude: everyone, or only the uncontrolled tier (the operator and informed household may enter).
+enum class ZoneKind { people, keep_out };
+enum class KeepsOut { everyone, uncontrolled };
+
 struct Zone {
   std::string name;
+  ZoneKind kind = ZoneKind::people;
+  KeepsOut keeps_out = KeepsOut::everyone;  // keep_out only
+  std::string barrier;                      // keep_out only: the fence or barrier, as described
   Polygon polygon;               // from `polygon` or the building's footprint
+  std::vector<Polygon> holes;    // parts of the polygon that are not part of the zone
   std::string building;          // empty unless the zone is a building's interior
   limits::Tier tier = limits::Tier::uncontrolled;
   std::vector<double> floors_m;  // body line from each floor to floor + 2 m (default: ground only)

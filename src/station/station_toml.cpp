@@ -1,5 +1,6 @@
 #include "station/station_toml.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -145,6 +146,53 @@ Polygon polygon(const Reader& r, const std::string& key) {
                             std::to_string(bad->second + 1) + " cross or a vertex repeats)");
   if (std::abs(exposure::signed_area(poly)) <= 0.0) throw InputError(w, "polygon has no area");
   return poly;
+}
+
+// `kind = "keep_out"` (fenced or no access; `keeps_out = "everyone"` (default) or
+// "uncontrolled", `barrier` = a note of the fence) or the default "people".
+void read_zone_kind(const Reader& r, Zone& z) {
+  const std::string kind = r.opt_string("kind").value_or("people");
+  if (kind == "people") {
+    z.kind = ZoneKind::people;
+    for (const char* key : {"barrier", "keeps_out"})
+      if (r.has(key)) throw InputError(r.where(key), "only allowed for kind = \"keep_out\"");
+    return;
+  }
+  if (kind != "keep_out") throw InputError(r.where("kind"), "unknown zone kind \"" + kind + "\": expected people or keep_out");
+  z.kind = ZoneKind::keep_out;
+  if (r.has("tier"))
+    throw InputError(r.where("tier"), "a keep_out zone has no tier: say whom it keeps out with keeps_out = "
+                                      "\"everyone\" or \"uncontrolled\"");
+  if (r.has("floors")) throw InputError(r.where("floors"), "a keep_out zone has no floors");
+  const std::string who = r.opt_string("keeps_out").value_or("everyone");
+  if (who == "everyone") z.keeps_out = KeepsOut::everyone;
+  else if (who == "uncontrolled") z.keeps_out = KeepsOut::uncontrolled;
+  else throw InputError(r.where("keeps_out"), "expected everyone or uncontrolled");
+  z.barrier = r.opt_string("barrier").value_or("");
+}
+
+// `holes = [[["x m", "y m"], ...], ...]`: parts of the zone's polygon that are not in the zone;
+// each hole lies within the polygon.
+std::vector<Polygon> zone_holes(const Reader& r, const Polygon& outer) {
+  std::vector<Polygon> out;
+  const toml::node* n = r.node("holes");
+  if (!n) return out;
+  const auto* a = n->as_array();
+  const Where w = r.where("holes");
+  if (!a) throw InputError(w, "expected an array of polygons [[[\"x m\", \"y m\"], ...], ...]");
+  for (const auto& h : *a) {
+    const Where wh{w.file, line_of(h), w.field};
+    const auto* pts = h.as_array();
+    if (!pts) throw InputError(wh, "expected a polygon: an array of plan points");
+    Polygon poly;
+    for (const auto& v : *pts) poly.push_back(plan_point(v, Where{w.file, line_of(v), w.field}));
+    if (poly.size() < 3) throw InputError(wh, "a hole needs at least 3 vertices");
+    if (exposure::self_intersection(poly)) throw InputError(wh, "the hole is self-intersecting");
+    if (std::abs(exposure::signed_area(poly)) <= 0.0) throw InputError(wh, "the hole has no area");
+    if (!geometry::ring_within(poly, outer)) throw InputError(wh, "the hole is not inside the zone's polygon");
+    out.push_back(std::move(poly));
+  }
+  return out;
 }
 
 std::vector<double> heights(const Reader& r, const std::string& key) {
@@ -675,11 +723,13 @@ Station load_station(std::string_view toml_text, const std::string& file) {
   if (const auto* a = array_of_tables(root, "zone", file)) {
     std::size_t i = 0;
     for (const auto& n : *a) {
-      Reader r(*n.as_table(), file, indexed("zone", i++), {"name", "polygon", "building", "tier", "floors"});
+      Reader r(*n.as_table(), file, indexed("zone", i++),
+               {"name", "polygon", "building", "tier", "floors", "kind", "holes", "barrier", "keeps_out"});
       Zone z;
       z.line = r.line();
       z.name = r.name();
-      z.tier = tier(r);
+      read_zone_kind(r, z);
+      if (z.kind == ZoneKind::people) z.tier = tier(r);
       z.building = r.opt_string("building").value_or("");
       if (!z.building.empty()) {
         if (r.has("polygon")) throw InputError(r.where("polygon"), "give either polygon or building, not both");
@@ -694,11 +744,12 @@ Station load_station(std::string_view toml_text, const std::string& file) {
         z.floors_m = {0.0};
       }
       if (r.has("floors")) z.floors_m = heights(r, "floors");
+      z.holes = zone_holes(r, z.polygon);
       st.site.zones.push_back(std::move(z));
     }
     check_unique(st.site.zones, "zone", file);
   }
-  if (st.site.zones.empty())
+  if (std::none_of(st.site.zones.begin(), st.site.zones.end(), [](const Zone& z) { return z.kind == ZoneKind::people; }))
     throw InputError(Where{file, 1, "zone"}, "no [[zone]]: describe at least one place where people can be");
 
   if (const auto* a = array_of_tables(root, "point", file)) {

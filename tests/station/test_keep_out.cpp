@@ -1,0 +1,95 @@
+// Keep-out areas and zones with holes (issue 12): a fence drawn at the detailed keep-away distance
+// around the demo's garden vertical makes that operation comply for the people it keeps out, the
+// distance taken from the evaluation itself (not typed in).
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <string>
+
+#include <fmt/format.h>
+
+#include "core/plan_geometry.hpp"
+#include "exposure/evaluate.hpp"
+#include "station/sources.hpp"
+#include "station/station_toml.hpp"
+
+using namespace standoff;
+using Catch::Matchers::Contains;
+
+namespace {
+
+const char* kOp = "20 m RTTY on the vertical";
+
+exposure::OperationResult evaluate_vertical(const std::string& text) {
+  const auto st = station::load_station(text, "demo.toml");
+  station::BuildOptions bo;
+  bo.only_operation = kOp;
+  const auto built = station::build(st, bo);
+  exposure::EvaluationOptions eo;
+  eo.grid_spacing_m = 1.0;  // small grid: the test stays fast
+  const auto ev = exposure::evaluate(built.input, eo);
+  REQUIRE(ev.operations.size() == 1);
+  return ev.operations[0];
+}
+
+// A square fence of half-side d about (x, y): every point outside it is at least d away.
+std::string fence(double x, double y, double d, const std::string& keeps_out) {
+  return fmt::format(R"(
+[[zone]]
+name = "vertical fence"
+kind = "keep_out"
+keeps_out = "{}"
+barrier = "1.2 m wooden fence with a locked gate"
+polygon = [["{:.2f} m", "{:.2f} m"], ["{:.2f} m", "{:.2f} m"], ["{:.2f} m", "{:.2f} m"], ["{:.2f} m", "{:.2f} m"]]
+)",
+                     keeps_out, x - d, y - d, x + d, y - d, x + d, y + d, x - d, y + d);
+}
+
+}  // namespace
+
+TEST_CASE("keep-out: a fence at the detailed distance around the demo vertical makes it comply", "[station]") {
+  const std::string demo(station::demo_station_text());
+  const auto before = evaluate_vertical(demo);
+  REQUIRE(before.verdict == exposure::Verdict::exceeds);
+  // The garden around the vertical is a controlled zone: the controlled distance is the one to fence.
+  REQUIRE(before.detailed_distance.controlled_m);
+  const double d = *before.detailed_distance.controlled_m;
+  INFO("detailed controlled distance " << d << " m");
+  CHECK(d > 0.5);
+  const auto after = evaluate_vertical(demo + fence(6.0, 34.0, d, "everyone"));
+  CHECK(after.verdict == exposure::Verdict::within);
+  // A fence that keeps out only the uncontrolled public leaves the controlled garden evaluated.
+  const auto public_only = evaluate_vertical(demo + fence(6.0, 34.0, d, "uncontrolled"));
+  CHECK(public_only.verdict == exposure::Verdict::exceeds);
+  // Half the distance is not enough.
+  const auto small = evaluate_vertical(demo + fence(6.0, 34.0, 0.5 * d, "everyone"));
+  CHECK(small.verdict == exposure::Verdict::exceeds);
+}
+
+TEST_CASE("zones with holes: points in a hole are outside the zone, its edge inside", "[station]") {
+  // Closed-form geometry (Boost.Geometry predicates): a 10 m square with a 2 m square hole.
+  const geometry::Area a{{{0, 0}, {10, 0}, {10, 10}, {0, 10}}, {{{4, 4}, {6, 4}, {6, 6}, {4, 6}}}};
+  CHECK(geometry::inside(a, {1, 1}));
+  CHECK_FALSE(geometry::inside(a, {5, 5}));
+  CHECK(geometry::inside(a, {4, 5}));   // the hole's edge belongs to the zone (evaluated: conservative)
+  CHECK(geometry::inside(a, {10, 5}));  // the outer edge too
+  CHECK_FALSE(geometry::inside(a, {11, 5}));
+  CHECK(geometry::signed_area(a.outer) == Approx(100.0));
+  CHECK(geometry::signed_area({{0, 0}, {0, 10}, {10, 10}, {10, 0}}) == Approx(-100.0));
+  CHECK(geometry::self_intersection({{0, 0}, {10, 10}, {10, 0}, {0, 10}}));
+  CHECK(geometry::distance_to_segment({3, 4}, {0, 0}, {0, 10}) == Approx(3.0));
+  // From the station file: a hole outside the polygon is refused with its field.
+  std::string demo(station::demo_station_text());
+  const std::string garden = "name = \"garden\"\npolygon = [[\"0 m\", \"0 m\"], [\"40 m\", \"0 m\"], [\"40 m\", \"70 m\"], [\"0 m\", \"70 m\"]]\n";
+  REQUIRE(demo.find(garden) != std::string::npos);
+  std::string with_hole = demo;
+  with_hole.replace(with_hole.find(garden), garden.size(),
+                    garden + "holes = [[[\"2 m\", \"30 m\"], [\"10 m\", \"30 m\"], [\"10 m\", \"38 m\"], [\"2 m\", \"38 m\"]]]\n");
+  const auto st = station::load_station(with_hole, "demo.toml");
+  REQUIRE(st.site.zones.size() >= 2);
+  CHECK(st.site.zones[1].holes.size() == 1);
+  std::string outside = demo;
+  outside.replace(outside.find(garden), garden.size(),
+                  garden + "holes = [[[\"50 m\", \"30 m\"], [\"60 m\", \"30 m\"], [\"60 m\", \"38 m\"]]]\n");
+  CHECK_THROWS_WITH(station::load_station(outside, "demo.toml"), Contains("zone[1].holes") && Contains("not inside"));
+}
