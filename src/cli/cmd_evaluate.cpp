@@ -2,6 +2,7 @@
 // (issue 5). The CLI reads the file, calls the core, builds the record and hands it to the writers.
 #include <unistd.h>
 
+#include <cctype>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -175,10 +176,14 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
     rec.lines = lines_section(station::check_installation(st));
   for (const auto& z : st.site.zones)
     if (z.kind == station::ZoneKind::keep_out)
-      rec.assumptions.push_back("Keep-out area \"" + z.name + "\"" + (z.barrier.empty() ? "" : " (" + z.barrier + ")") +
+      rec.cautions.push_back("Keep-out area \"" + z.name + "\"" + (z.barrier.empty() ? "" : " (" + z.barrier + ")") +
                                 ": not evaluated for " +
                                 (z.keeps_out == station::KeepsOut::everyone ? "anyone" : "the uncontrolled tier") +
                                 " — the barrier must stay in place and closed while transmitting.");
+  for (std::string u : built.unzoned) {
+    u[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(u[0])));
+    (u.rfind("Not evaluated", 0) == 0 ? rec.cautions : rec.assumptions).push_back(u + ".");
+  }
   rec.assumptions.push_back("Ground: " + station::to_string(st.site.ground) + ".");
   rec.assumptions.push_back("Body line: " + ev.body_rule + ".");
   rec.assumptions.push_back(fmt::format("Zone grids at {:.3g} m spacing, 2×2 sub-points within 2 m of an antenna.",

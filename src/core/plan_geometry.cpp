@@ -1,6 +1,7 @@
 #include "core/plan_geometry.hpp"
 
 #include <algorithm>
+#include <cmath>
 
 // GCC 12 reports a false maybe-uninitialized inside Boost.Geometry's rescale policy (instantiated
 // here by the areal predicates); the library code is not ours to change.
@@ -88,6 +89,39 @@ std::optional<PlanPoint> segment_crossing(PlanPoint a, PlanPoint b, PlanPoint c,
   if (out.empty()) return std::nullopt;
   return out.front();
 }
+
+namespace {
+using BgPolygon = bg::model::polygon<PlanPoint, false, false>;  // counter-clockwise, open
+using BgMulti = bg::model::multi_polygon<BgPolygon>;
+
+BgPolygon to_bg(const Area& a) {
+  BgPolygon p;
+  p.outer().assign(a.outer.begin(), a.outer.end());
+  for (const auto& h : a.holes) p.inners().emplace_back(h.begin(), h.end());
+  bg::correct(p);
+  return p;
+}
+}  // namespace
+
+std::vector<Area> difference(const Polygon& outer, const std::vector<Area>& cut) {
+  BgMulti rest;
+  rest.push_back(to_bg(Area{outer, {}}));
+  for (const auto& c : cut) {
+    BgMulti next;
+    bg::difference(rest, to_bg(c), next);
+    rest = std::move(next);
+  }
+  std::vector<Area> out;
+  for (const auto& p : rest) {
+    Area a;
+    a.outer.assign(p.outer().begin(), p.outer().end());
+    for (const auto& h : p.inners()) a.holes.emplace_back(h.begin(), h.end());
+    out.push_back(std::move(a));
+  }
+  return out;
+}
+
+double area(const Area& a) { return std::abs(bg::area(to_bg(a))); }
 
 std::pair<PlanPoint, PlanPoint> bounds(const Polygon& poly) {
   bg::model::box<PlanPoint> box;

@@ -50,6 +50,11 @@ double segment_distance(PlanPoint a, PlanPoint b, PlanPoint c, PlanPoint d);
 // A common point of the segments ab and cd, if they cross or touch.
 std::optional<PlanPoint> segment_crossing(PlanPoint a, PlanPoint b, PlanPoint c, PlanPoint d);
 
+// The parts of `outer` covered by none of `cut` (each an area with holes): outer − ∪ cut.
+std::vector<Area> difference(const Polygon& outer, const std::vector<Area>& cut);
+// Area of an area with holes (positive).
+double area(const Area& a);
+
 // Axis-aligned bounds of a polygon: {min, max}.
 std::pair<PlanPoint, PlanPoint> bounds(const Polygon& poly);
 

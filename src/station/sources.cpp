@@ -8,6 +8,8 @@
 #include <set>
 #include <sstream>
 
+#include <fmt/format.h>
+
 #include "core/constants.hpp"
 #include "em/builders.hpp"
 #include "em/fields.hpp"
@@ -132,6 +134,33 @@ void add_people_zones(const Station& st, exposure::EvaluationInput& in) {
   }
 }
 
+// The parts of the property (its boundary) that no zone and no keep-out area covers: reported as
+// not evaluated, or evaluated at ground level with [site] default_tier. Slivers under 0.5 m² (a
+// grid cell's share of rounding) are ignored.
+void add_unzoned(const Station& st, exposure::EvaluationInput& in, std::vector<std::string>& notes) {
+  std::vector<geometry::Area> covered;
+  for (const auto& z : st.site.zones) covered.push_back(geometry::Area{z.polygon, z.kind == ZoneKind::people ? z.holes : std::vector<Polygon>{}});
+  int n = 0;
+  for (const auto& part : geometry::difference(st.site.boundary, covered)) {
+    const double a = geometry::area(part);
+    if (a < 0.5) continue;
+    ++n;
+    const auto [lo, hi] = geometry::bounds(part.outer);
+    const std::string m2 = fmt::format("{:.0f}", std::ceil(a - 1e-9));  // rounded up: at least this much
+    const std::string where = "x " + num(lo.x_m, 3) + " to " + num(hi.x_m, 3) + " m, y " + num(lo.y_m, 3) + " to " +
+                              num(hi.y_m, 3) + " m";
+    if (st.site.default_tier) {
+      const std::string name = "unzoned part " + std::to_string(n);
+      in.zones.push_back({name, *st.site.default_tier, part.outer, {0.0}, part.holes});
+      notes.push_back("no zone covers " + m2 + " m² of the property (" + where + "): evaluated as \"" + name +
+                      "\" with [site] default_tier = " + limits::to_string(*st.site.default_tier));
+    } else {
+      notes.push_back("not evaluated: no zone covers " + m2 + " m² of the property (" + where +
+                      ") — add a [[zone]] there or give [site] default_tier");
+    }
+  }
+}
+
 // An attic or indoor antenna: the building does not shield, so its floors are evaluated. When no
 // zone covers the building's floors, they are added as an uncontrolled zone (the most protective
 // tier: anyone may be indoors).
@@ -208,6 +237,7 @@ Built build(const Station& st, const BuildOptions& options) {
   in.standard = out.standard;
   in.limits_source = table.source();
   add_people_zones(st, in);
+  add_unzoned(st, in, out.unzoned);
   add_indoor_zones(st, in);
   for (const auto& p : st.site.points) in.points.push_back({p.name, p.tier, {p.at.x_m, p.at.y_m, p.at.z_m}});
 

@@ -39,6 +39,9 @@ struct Built {
   const limits::LimitTable* table = nullptr;
   // Per source: the wires drawn on the map (site frame), empty for screening antennas.
   std::vector<std::vector<std::pair<Eigen::Vector3d, Eigen::Vector3d>>> wires;
+  // Parts of the property that no zone covers: "not evaluated: no zone covers …", or evaluated
+  // with [site] default_tier (then said so).
+  std::vector<std::string> unzoned;
 };
 
 // Throws InputError naming the station file, line and field for anything the tables or the antenna

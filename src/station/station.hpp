@@ -64,6 +64,7 @@ struct PointOfInterest {
 struct Site {
   GroundKind ground = GroundKind::average;
   Polygon boundary;
+  std::optional<limits::Tier> default_tier;  // tier of the parts of the property no zone covers
   std::vector<Building> buildings;
   std::vector<Zone> zones;
   std::vector<PointOfInterest> points;

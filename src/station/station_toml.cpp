@@ -692,7 +692,12 @@ Station load_station(std::string_view toml_text, const std::string& file) {
   const toml::table* site_t = root["site"].as_table();
   if (!site_t) throw InputError(Where{file, 1, "site"}, "missing the [site] table");
   {
-    Reader r(*site_t, file, "site", {"ground", "boundary"});
+    Reader r(*site_t, file, "site", {"ground", "boundary", "default_tier"});
+    if (auto t = r.opt_string("default_tier")) {
+      auto tt = limits::tier_from_string(*t);
+      if (!tt) throw InputError(r.where("default_tier"), "unknown tier \"" + *t + "\": expected controlled or uncontrolled");
+      st.site.default_tier = *tt;
+    }
     if (auto g = r.opt_string("ground")) {
       auto k = ground_kind(*g);
       if (!k)

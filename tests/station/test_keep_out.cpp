@@ -93,3 +93,29 @@ TEST_CASE("zones with holes: points in a hole are outside the zone, its edge ins
                   garden + "holes = [[[\"50 m\", \"30 m\"], [\"60 m\", \"30 m\"], [\"60 m\", \"38 m\"]]]\n");
   CHECK_THROWS_WITH(station::load_station(outside, "demo.toml"), Contains("zone[1].holes") && Contains("not inside"));
 }
+
+TEST_CASE("unzoned parts of the property are reported, or evaluated with [site] default_tier", "[cli]") {
+  // The demo's garden covers the whole boundary; shrink it to the southern half (y 0..35 m).
+  std::string demo(station::demo_station_text());
+  const std::string garden = "polygon = [[\"0 m\", \"0 m\"], [\"40 m\", \"0 m\"], [\"40 m\", \"70 m\"], [\"0 m\", \"70 m\"]]\ntier = \"controlled\"";
+  const auto at = demo.find(garden);
+  REQUIRE(at != std::string::npos);
+  demo.replace(at, garden.size(), "polygon = [[\"0 m\", \"0 m\"], [\"40 m\", \"0 m\"], [\"40 m\", \"35 m\"], [\"0 m\", \"35 m\"]]\ntier = \"controlled\"");
+  const auto st = station::load_station(demo, "demo.toml");
+  const auto built = station::build(st);
+  REQUIRE(built.unzoned.size() == 1);
+  // 40 m × 35 m = 1400 m² uncovered (closed-form area).
+  CHECK_THAT(built.unzoned[0], Contains("not evaluated: no zone covers 1400 m²") && Contains("y 35 to 70 m"));
+  const std::string with_default = [&] {
+    std::string t = demo;
+    t.replace(t.find("[site]\n"), 7, "[site]\ndefault_tier = \"uncontrolled\"\n");
+    return t;
+  }();
+  const auto st2 = station::load_station(with_default, "demo.toml");
+  const auto built2 = station::build(st2);
+  REQUIRE(built2.unzoned.size() == 1);
+  CHECK_THAT(built2.unzoned[0], Contains("default_tier = uncontrolled"));
+  bool zone = false;
+  for (const auto& z : built2.input.zones) zone |= z.name == "unzoned part 1" && z.tier == limits::Tier::uncontrolled;
+  CHECK(zone);
+}
