@@ -130,6 +130,7 @@ report::LinesSection lines_section(const siting::LinesReport& lr) {
     lc.pass = c.pass();
     lc.note = c.note;
     lc.diameter = c.diameter;
+    lc.remedies = c.remedies;
     s.checks.push_back(lc);
   }
   s.assumptions = lr.assumptions;

@@ -5,6 +5,7 @@
 #include "report/format.hpp"
 #include "report/svg.hpp"
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -176,8 +177,10 @@ std::string to_html(const Record& r) {
       }
       h += table({"Point of interest", "Tier", "At", "Exposure (% of limit)"}, rows);
     }
-    if (!op.notes.empty()) {
+    const auto remedies = exposure::operation_remedies(op);
+    if (!op.notes.empty() || !remedies.empty()) {
       h += "<ul class=\"note\">\n";
+      for (const auto& rm : remedies) h += "<li>Remedy: " + esc(rm.text) + "</li>\n";
       for (const auto& n : op.notes) h += "<li>" + esc(n) + "</li>\n";
       h += "</ul>\n";
     }
@@ -198,8 +201,12 @@ std::string to_html(const Record& r) {
                       esc(fmtx::check_actual(c)), badge(c.pass ? "pass" : "fail"), esc(c.source), esc(c.note)});
     }
     h += table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Source", "Note"}, rows);
-    if (!r.lines->assumptions.empty()) {
+    bool any_remedy = false;
+    for (const auto& c : r.lines->checks) any_remedy |= !c.remedies.empty();
+    if (!r.lines->assumptions.empty() || any_remedy) {
       h += "<ul class=\"note\">\n";
+      for (const auto& c : r.lines->checks)
+        for (const auto& rm : c.remedies) h += "<li>Remedy (" + esc(c.rule) + ", " + esc(c.subject) + "): " + esc(rm.text) + "</li>\n";
       for (const auto& a : r.lines->assumptions) h += "<li>Assumption: " + esc(a) + "</li>\n";
       h += "</ul>\n";
     }

@@ -2,6 +2,7 @@
 #include <cmath>
 
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -29,6 +30,13 @@ json place(const exposure::PlaceExposure& w, bool evaluated, json& j) {
   return j;
 }
 
+json remedies_json(const std::vector<Remedy>& rs) {
+  json a = json::array();
+  for (const auto& r : rs)
+    a.push_back({{"kind", r.kind}, {"value", r.value ? json(*r.value) : json(nullptr)}, {"unit", r.unit}, {"text", r.text}});
+  return a;
+}
+
 json operation(const exposure::OperationResult& op) {
   json j;
   j["name"] = op.name;
@@ -52,6 +60,7 @@ json operation(const exposure::OperationResult& op) {
   j["screening_distance_m"] = tier_distances(op.screening_distance);
   j["detailed_distance_m"] = tier_distances(op.detailed_distance);
   j["verdict"] = exposure::to_string(op.verdict);
+  j["remedies"] = remedies_json(exposure::operation_remedies(op));
   j["notes"] = op.notes;
   j["not_evaluated_count"] = op.not_evaluated_count;
   json ne = json::array();
@@ -133,7 +142,8 @@ json to_json(const Record& r) {
                         {"required_m", opt(c.required_m)},
                         {"actual_m", opt(c.actual_m)},
                         {"pass", c.pass},
-                        {"note", c.note}});
+                        {"note", c.note},
+                        {"remedies", remedies_json(c.remedies)}});
     }
     j["power_lines"] = {{"verdict", r.lines->all_pass() ? "pass" : "fail"},
                         {"checks", checks},

@@ -3,6 +3,7 @@
 
 #include "report/format.hpp"
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -145,8 +146,10 @@ std::string to_markdown(const Record& r) {
       }
       md += table({"Point of interest", "Tier", "At", "Exposure (% of limit)"}, rows);
     }
+    const auto remedies = exposure::operation_remedies(op);
+    for (const auto& rm : remedies) md += "- Remedy: " + text(rm.text) + "\n";
     for (const auto& n : op.notes) md += "- " + text(n) + "\n";
-    if (!op.notes.empty()) md += "\n";
+    if (!op.notes.empty() || !remedies.empty()) md += "\n";
     if (!op.ratio_vs_distance.empty()) {
       md += "![Exposure ratio versus distance, " + text(op.name) + "](" + chart_file_name(op.name) + ")\n\n";
     }
@@ -160,8 +163,14 @@ std::string to_markdown(const Record& r) {
                       "**" + fmtx::verdict_word(c.pass ? "pass" : "fail") + "**", c.source, c.note});
     }
     md += table({"Check", "Subject", "Power line", "Required", "Actual", "Result", "Source", "Note"}, rows);
+    bool any = !r.lines->assumptions.empty();
+    for (const auto& c : r.lines->checks)
+      for (const auto& rm : c.remedies) {
+        md += "- Remedy (" + text(c.rule) + ", " + text(c.subject) + "): " + text(rm.text) + "\n";
+        any = true;
+      }
     for (const auto& a : r.lines->assumptions) md += "- Assumption: " + text(a) + "\n";
-    if (!r.lines->assumptions.empty()) md += "\n";
+    if (any) md += "\n";
   } else {
     md += "The station file describes no power lines or supports; no clearance checks were made.\n\n";
   }

@@ -9,6 +9,7 @@
 
 #include "report/format.hpp"
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -93,6 +94,7 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
       out << "  " << op.not_evaluated_count
           << " place(s) not evaluated (too close for the model) — measure or use another method\n";
     }
+    for (const auto& rm : exposure::operation_remedies(op)) out << "  remedy: " << rm.text << "\n";
     for (const auto& n : op.notes) out << "  note: " << n << "\n";
   }
   out << "\n";
@@ -107,6 +109,8 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
                             paint(fmtx::verdict_word(v), v, options.colour), c.source});
     }
     out << "Power-line clearances\n" << lines.render("  ");
+    for (const auto& c : r.lines->checks)
+      for (const auto& rm : c.remedies) out << "  remedy (" << c.rule << ", " << c.subject << "): " << rm.text << "\n";
     for (const auto& a : r.lines->assumptions) out << "  assumption: " << a << "\n";
     out << "\n";
   }

@@ -12,6 +12,7 @@
 #include <string>
 #include <vector>
 
+#include "core/remedy.hpp"
 #include "core/units.hpp"
 #include "siting/catenary.hpp"
 #include "siting/clearances.hpp"
@@ -32,6 +33,8 @@ struct Check {
   CheckStatus status = CheckStatus::fail;
   std::string note;
   bool diameter = false;  // required/actual are wire diameters (shown in mm), not clearances
+  double size_m = 0.0;    // the support's reach, the handled length or the wire's free length (remedies)
+  std::vector<Remedy> remedies{};  // computed for a failed or unevaluated check: the change that would pass
   bool pass() const { return status == CheckStatus::pass; }
 };
 

@@ -294,6 +294,11 @@ nlohmann::json lines_report_json(const LinesReport& report) {
     j["status"] = to_string(c.status);
     j["note"] = c.note;
     j["quantity"] = c.diameter ? "diameter" : "distance";
+    nlohmann::json rem = nlohmann::json::array();
+    for (const auto& x : c.remedies)
+      rem.push_back({{"kind", x.kind}, {"value", x.value ? nlohmann::json(*x.value) : nlohmann::json(nullptr)},
+                     {"unit", x.unit}, {"text", x.text}});
+    j["remedies"] = rem;
     checks.push_back(j);
   }
   return nlohmann::json{{"verdict", report.verdict()},
@@ -324,6 +329,7 @@ std::string lines_report_text(const LinesReport& report) {
     else
       out += fmt::format("      required {}, actual {}\n", req, act);
     out += fmt::format("      {}\n      source: {}\n", c.note, c.source);
+    for (const auto& x : c.remedies) out += "      remedy: " + x.text + "\n";
   }
   if (!report.assumptions.empty()) {
     out += "Assumptions\n";

@@ -4,12 +4,16 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <optional>
 #include <string>
 
 #include <fmt/format.h>
 
 #include "core/plan_geometry.hpp"
 #include "exposure/evaluate.hpp"
+#include "exposure/remedies.hpp"
+#include "siting/checks.hpp"
+#include "siting/clearances_toml.hpp"
 #include "station/sources.hpp"
 #include "station/station_toml.hpp"
 
@@ -118,4 +122,68 @@ TEST_CASE("unzoned parts of the property are reported, or evaluated with [site] 
   bool zone = false;
   for (const auto& z : built2.input.zones) zone |= z.name == "unzoned part 1" && z.tier == limits::Tier::uncontrolled;
   CHECK(zone);
+}
+
+TEST_CASE("remedies: the computed PEP and duty make the demo vertical comply", "[station]") {
+  // Self-consistency of the remedies with the evaluation (the exposure ratio is proportional to
+  // the average power: linear field equations; OET 65 Supplement B for duty × on-air share).
+  const std::string demo(station::demo_station_text());
+  const auto before = evaluate_vertical(demo);
+  const auto rs = exposure::operation_remedies(before);
+  std::optional<double> pep, duty;
+  for (const auto& r : rs) {
+    if (r.kind == "max_pep") pep = r.value;
+    if (r.kind == "max_duty") duty = r.value;
+  }
+  REQUIRE(pep);
+  REQUIRE(duty);
+  const std::string amp = "name = \"hf amplifier\"\npep = \"1.5 kW\"";
+  std::string lower = demo;
+  lower.replace(lower.find(amp), amp.size(), fmt::format("name = \"hf amplifier\"\npep = \"{:.1f} W\"", *pep));
+  CHECK(evaluate_vertical(lower).verdict == exposure::Verdict::within);
+  const std::string mode = "frequency = \"14.08 MHz\"\nmode = \"fsk\"";
+  std::string less_duty = demo;
+  less_duty.replace(less_duty.find(mode), mode.size(), fmt::format("frequency = \"14.08 MHz\"\nduty = \"{:.1f} %\"", *duty));
+  CHECK(evaluate_vertical(less_duty).verdict == exposure::Verdict::within);
+}
+
+TEST_CASE("remedies: the computed support height passes the fall zone", "[station]") {
+  // US CPSC fall zone max(1.5 H, H + 10 ft): a 10 m mast 12 m from the line fails (15 m needed);
+  // the remedy's largest height is min(12/1.5, 12 − 3.048) = 8 m, which passes.
+  siting::SiteElements site;
+  siting::PowerLine l;
+  l.name = "line";
+  l.path = {{units::metres(0.0), units::metres(0.0)}, {units::metres(50.0), units::metres(0.0)}};
+  l.height = units::metres(8.0);
+  l.voltage = siting::LineVoltage{siting::volts(7200.0), siting::VoltageReference::phase_to_ground};
+  site.power_lines.push_back(l);
+  siting::Support s;
+  s.name = "mast";
+  s.base = {units::metres(20.0), units::metres(12.0)};
+  s.height = units::metres(10.0);
+  site.supports.push_back(s);
+  const auto& t = siting::builtin_clearance_tables();
+  auto fall_zone = [&](const siting::LinesReport& r) -> const siting::Check& {
+    for (const auto& c : r.checks)
+      if (c.rule == "fall zone") return c;
+    FAIL("no fall zone check");
+    return r.checks.front();
+  };
+  const auto r1 = siting::run_checks(site, t);
+  const auto& c1 = fall_zone(r1);
+  REQUIRE_FALSE(c1.pass());
+  std::optional<double> h, move;
+  for (const auto& rm : c1.remedies) {
+    if (rm.kind == "max_height") h = rm.value;
+    if (rm.kind == "move_away") move = rm.value;
+  }
+  REQUIRE(h);
+  REQUIRE(move);
+  CHECK(*h == Approx(8.0));
+  CHECK(*move == Approx(3.0));
+  site.supports[0].height = units::metres(*h);
+  CHECK(fall_zone(siting::run_checks(site, t)).pass());
+  site.supports[0].height = units::metres(10.0);
+  site.supports[0].base.y = units::metres(12.0 + *move);
+  CHECK(fall_zone(siting::run_checks(site, t)).pass());
 }
