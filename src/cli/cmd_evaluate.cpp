@@ -185,7 +185,13 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
     u[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(u[0])));
     (u.rfind("Not evaluated", 0) == 0 ? rec.cautions : rec.assumptions).push_back(u + ".");
   }
-  rec.assumptions.push_back("Ground: " + station::to_string(st.site.ground) + ".");
+  {
+    const em::Ground g = station::em_ground(st.site.ground);
+    rec.assumptions.push_back(g.kind == em::GroundKind::real
+                                  ? fmt::format("Ground: {} (εr {:g}, σ {:g} S/m, tables/grounds.toml).", st.site.ground,
+                                                g.eps_r, g.sigma_s_per_m)
+                                  : "Ground: " + st.site.ground + ".");
+  }
   rec.assumptions.push_back("Body line: " + ev.body_rule + ".");
   rec.assumptions.push_back(fmt::format("Zone grids at {:.3g} m spacing, 2×2 sub-points within 2 m of an antenna.",
                                         ev.grid_spacing_m));

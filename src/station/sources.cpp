@@ -13,6 +13,7 @@
 #include "core/constants.hpp"
 #include "em/builders.hpp"
 #include "em/fields.hpp"
+#include "em/grounds_toml.hpp"
 #include "exposure/aperture.hpp"
 #include "exposure/screening.hpp"
 #include "limits/limits_toml.hpp"
@@ -179,18 +180,11 @@ void add_indoor_zones(const Station& st, exposure::EvaluationInput& in) {
 
 }  // namespace
 
-em::Ground em_ground(GroundKind g) {
-  // Ground constants: REFERENCES.md §6 after ITU-R P.527 (from memory, verify against ITU-R P.527
-  // Figure 1 rows); "average" is the antenna literature's convention (MOM-NOTES §4).
-  switch (g) {
-    case GroundKind::free_space: return em::free_space();
-    case GroundKind::perfect: return em::perfect_ground();
-    case GroundKind::average: return em::real_ground(15.0, 0.005, "average ground (εr 15, 0.005 S/m)");
-    case GroundKind::poor: return em::real_ground(4.0, 0.001, "poor ground (εr 4, 0.001 S/m)");
-    case GroundKind::good: return em::real_ground(25.0, 0.02, "good ground (εr 25, 0.02 S/m)");
-    case GroundKind::sea_water: return em::real_ground(70.0, 5.0, "sea water (εr 70, 5 S/m)");
-  }
-  return em::free_space();
+em::Ground em_ground(const std::string& name) {
+  // One ground table for the station file and the command line: tables/grounds.toml (ITU-R P.527
+  // classes, from memory, verify against ITU-R P.527 Fig. 1; "average" is the antenna literature's
+  // convention, MOM-NOTES §4), plus perfect and free-space.
+  return em::ground_by_name(name, Where{"station file", 0, "site.ground"});
 }
 
 UserTables load_user_tables(const std::string& dir) {

@@ -49,8 +49,8 @@ struct Built {
 // antenna geometry the MoM engine cannot model).
 Built build(const Station& station, const BuildOptions& options = {});
 
-// em ground for a station ground class (ITU-R P.527 classes; "average" is the antenna literature's
-// convention 0.005 S/m, εr 13 — MOM-NOTES §4).
-em::Ground em_ground(GroundKind g);
+// em ground for a station ground name (tables/grounds.toml: ITU-R P.527 classes; "average" is the
+// antenna literature's convention 0.005 S/m, εr 13 — MOM-NOTES §4; perfect; free-space).
+em::Ground em_ground(const std::string& name);
 
 }  // namespace standoff::station

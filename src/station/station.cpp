@@ -2,18 +2,6 @@
 
 namespace standoff::station {
 
-std::string to_string(GroundKind g) {
-  switch (g) {
-    case GroundKind::free_space: return "free_space";
-    case GroundKind::perfect: return "perfect";
-    case GroundKind::average: return "average";
-    case GroundKind::poor: return "poor";
-    case GroundKind::good: return "good";
-    case GroundKind::sea_water: return "sea_water";
-  }
-  return "average";
-}
-
 std::string to_string(AntennaKind k) {
   switch (k) {
     case AntennaKind::dipole: return "dipole";

@@ -25,8 +25,6 @@ struct Point3 {
   double y_m = 0.0;
   double z_m = 0.0;
 };
-enum class GroundKind { free_space, perfect, average, poor, good, sea_water };
-std::string to_string(GroundKind g);
 
 struct Building {
   std::string name;
@@ -62,7 +60,10 @@ struct PointOfInterest {
 };
 
 struct Site {
-  GroundKind ground = GroundKind::average;
+  // Ground class, the same names as `standoff wire --ground` (tables/grounds.toml, ITU-R P.527:
+  // sea-water, fresh-water, wet-ground, medium-dry-ground, very-dry-ground; the literature's
+  // average; perfect; free-space).
+  std::string ground = "average";
   Polygon boundary;
   std::optional<limits::Tier> default_tier;  // tier of the parts of the property no zone covers
   std::vector<Building> buildings;

@@ -11,6 +11,7 @@
 
 #include "core/constants.hpp"
 #include "core/quantity_parse.hpp"
+#include "em/grounds_toml.hpp"
 #include "io/embedded.hpp"
 #include "siting/clearances_toml.hpp"
 #include "siting/siting_toml.hpp"
@@ -246,16 +247,6 @@ std::optional<AntennaKind> antenna_kind(const std::string& s) {
   if (s == "end_fed_half_wave") return AntennaKind::end_fed_half_wave;
   if (s == "ocf_dipole") return AntennaKind::ocf_dipole;
   if (s == "wires") return AntennaKind::wires;
-  return std::nullopt;
-}
-
-std::optional<GroundKind> ground_kind(const std::string& s) {
-  if (s == "free_space") return GroundKind::free_space;
-  if (s == "perfect") return GroundKind::perfect;
-  if (s == "average") return GroundKind::average;
-  if (s == "poor") return GroundKind::poor;
-  if (s == "good") return GroundKind::good;
-  if (s == "sea_water") return GroundKind::sea_water;
   return std::nullopt;
 }
 
@@ -699,11 +690,8 @@ Station load_station(std::string_view toml_text, const std::string& file) {
       st.site.default_tier = *tt;
     }
     if (auto g = r.opt_string("ground")) {
-      auto k = ground_kind(*g);
-      if (!k)
-        throw InputError(r.where("ground"),
-                         "unknown ground \"" + *g + "\": expected free_space, perfect, average, poor, good or sea_water");
-      st.site.ground = *k;
+      em::ground_by_name(*g, r.where("ground"));  // the names of `wire --ground` (tables/grounds.toml)
+      st.site.ground = *g;
     }
     st.site.boundary = polygon(r, "boundary");
   }

@@ -8,6 +8,7 @@
 #include <string>
 
 #include "core/constants.hpp"
+#include "em/grounds_toml.hpp"
 #include "em/solve.hpp"
 #include "station/antenna_model.hpp"
 #include "station/sources.hpp"
@@ -176,4 +177,23 @@ TEST_CASE("kinds: bad keys for the new kinds name their field", "[station]") {
                                                        "height = \"10 m\"\nlength = \"10 m\"\nmatching_ratio = \"49\"\n"),
                                           "k.toml"),
                     Contains("antenna[0].matching_ratio"));
+}
+
+TEST_CASE("ground names: the station file uses the ITU-R P.527 classes of `wire --ground`", "[station]") {
+  // Same spelling on the command line and in the file (tables/grounds.toml, ITU-R P.527 classes,
+  // from memory, verify against ITU-R P.527-4 Fig. 1).
+  for (const std::string g : {"sea-water", "fresh-water", "wet-ground", "medium-dry-ground", "very-dry-ground",
+                              "average", "perfect", "free-space"}) {
+    std::string text = station_with("kind = \"gain\"\nposition = [\"0 m\", \"0 m\"]\nheight = \"10 m\"\ngain = \"0 dBi\"\n");
+    text.replace(text.find("[site]\n"), 7, "[site]\nground = \"" + g + "\"\n");
+    const auto st = station::load_station(text, "k.toml");
+    const em::Ground a = station::em_ground(st.site.ground);
+    const em::Ground b = em::ground_by_name(g, Where{"command line", 0, "--ground"});
+    CHECK(a.kind == b.kind);
+    CHECK(a.eps_r == b.eps_r);
+    CHECK(a.sigma_s_per_m == b.sigma_s_per_m);
+  }
+  std::string old = station_with("kind = \"gain\"\nposition = [\"0 m\", \"0 m\"]\nheight = \"10 m\"\ngain = \"0 dBi\"\n");
+  old.replace(old.find("[site]\n"), 7, "[site]\nground = \"sea_water\"\n");
+  CHECK_THROWS_WITH(station::load_station(old, "k.toml"), Contains("site.ground") && Contains("sea-water"));
 }
