@@ -6,6 +6,8 @@
 
 #include <filesystem>
 #include <fstream>
+#include <set>
+#include <sstream>
 #include <string>
 
 #include <nlohmann/json.hpp>
@@ -211,4 +213,43 @@ TEST_CASE("lines: reads the file through the station loader (refuses what evalua
   CHECK_THAT(run_cli({"lines", empty}).err, Contains("empty"));
   CHECK_THAT(run_cli({"lines", dir}).err, Contains("directory"));
   for (const auto& path : {unknown, bare, empty}) std::filesystem::remove(path);
+}
+
+TEST_CASE("second example: the folded dipole on 300 ohm line evaluates; moved over the line it fails", "[cli]") {
+  const std::string path = STANDOFF_SOURCE_DIR "/docs/examples/folded-dipole-station.toml";
+  const auto ok = run_cli({"evaluate", path, "--json", "--threads", "2"});
+  INFO(ok.err);
+  REQUIRE(ok.code == 0);
+  const auto j = nlohmann::json::parse(ok.out);
+  std::set<std::string> subjects;
+  for (const auto& c : j.at("power_lines").at("checks"))
+    if (c.at("rule") == "standing clearance") subjects.insert(c.at("subject").get<std::string>());
+  CHECK(subjects.count("folded dipole: fed conductor"));
+  CHECK(subjects.count("folded dipole: second conductor"));
+  CHECK(subjects.count("300 ohm line: route leg 1"));
+
+  // The issue's reproduction: the antenna moved to 1 m above the 9 m, 7.2 kV conductor, with no
+  // [[span]] written. The exposure stays tiny, but the installation must fail, and loudly.
+  std::ifstream in(path);
+  std::stringstream ss;
+  ss << in.rdbuf();
+  std::string text = ss.str();
+  const std::string pos = "position = [\"11 m\", \"45 m\"]\nheight = \"10 m\"";
+  REQUIRE(text.find(pos) != std::string::npos);
+  text.replace(text.find(pos), pos.size(), "position = [\"11 m\", \"-4 m\"]\nheight = \"10 m\"");
+  const std::string moved = write_temp("moved.toml", text);
+  const auto bad = run_cli({"evaluate", moved, "--threads", "2"});
+  CHECK(bad.code == 1);
+  CHECK_THAT(bad.out, !Contains("no power lines") && !Contains("no overhead power line"));
+  CHECK_THAT(bad.out, Contains("standing clearance") && Contains("folded dipole: fed conductor"));
+  const auto lines = run_cli({"lines", moved, "--json"});
+  CHECK(lines.code == 1);
+  const auto lj = nlohmann::json::parse(lines.out);
+  CHECK(lj.at("power_lines") == 1);
+  bool failed = false;
+  for (const auto& c : lj.at("checks"))
+    failed |= c.at("rule") == "standing clearance" && c.at("subject") == "folded dipole: fed conductor" &&
+              c.at("pass") == false && !c.at("remedies").empty();
+  CHECK(failed);
+  std::filesystem::remove(moved);
 }
