@@ -128,15 +128,18 @@ void derive_installation(Station& st) {
   std::vector<siting::Span> derived;     // antenna wires
   std::vector<siting::Support> implied;  // supports the antennas need and the file does not describe
 
-  for (const auto& a : st.antennas) {
+  for (std::size_t ai = 0; ai < st.antennas.size(); ++ai) {
+    const Antenna& a = st.antennas[ai];
     std::vector<siting::Span> mine;
     if (is_wire(a.kind)) {
       std::vector<std::string> ignored;
       em::Model m;
       try {
         m = antenna_model(a, geometry_frequency_hz(st, a), em::perfect_ground(), ignored);
-      } catch (const InputError&) {
-        continue;  // the exposure build reports the antenna's modelling error with its field
+      } catch (const InputError& e) {
+        // Never skip an antenna's clearance checks: a wire geometry that cannot be built is an error.
+        throw InputError(Where{st.file, a.line, "antenna[" + std::to_string(ai) + "].kind"},
+                         "the antenna's wires cannot be built for the power-line checks: " + e.message());
       }
       for (std::size_t i = 0; i < m.wires.size(); ++i) mine.push_back(wire_span(a, m.wires[i], i, rigid_wire(a, m.wires[i])));
     } else if (auto s = body_span(a)) {
