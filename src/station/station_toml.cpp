@@ -296,9 +296,9 @@ std::optional<power::FeedLine> inline_feed_line(const Reader& r, const std::stri
   const bool loss_form = r.has("z0") || r.has("matched_loss");
   const bool wire_form = r.has("conductor_diameter") || r.has("spacing") || r.has("material");
   const bool has_class = r.has("class");
-  if (has_class && (loss_form || wire_form))
-    throw InputError(r.where("class"), "give either class or an inline line (z0 + matched_loss, or "
-                                       "conductor_diameter + spacing), not both");
+  if (has_class && (loss_form || wire_form || r.has("velocity_factor")))
+    throw InputError(r.where("class"), "give either class or an inline line (z0 + velocity_factor + matched_loss, "
+                                       "or conductor_diameter + spacing + velocity_factor + material), not both");
   if (loss_form && wire_form)
     throw InputError(r.where("z0"), "give either z0 + matched_loss or parallel-wire geometry, not both");
   if (!has_class && !loss_form && !wire_form)

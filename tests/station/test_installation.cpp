@@ -253,3 +253,20 @@ TEST_CASE("second example: the folded dipole on 300 ohm line evaluates; moved ov
   CHECK(failed);
   std::filesystem::remove(moved);
 }
+
+TEST_CASE("installation: the conductor-size row shows millimetre diameters, not 0.0 m", "[cli]") {
+  // 14 AWG is 1.628 mm (ASTM B258); the row used to go through the metre formatter ("0.0 m").
+  const auto r = run_cli({"evaluate", STANDOFF_TEST_DATA_DIR "/siting/clear-site.toml", "--threads", "2"});
+  INFO(r.err);
+  REQUIRE((r.code == 0 || r.code == 1));
+  std::istringstream lines(r.out);
+  std::string row;
+  bool found = false;
+  while (std::getline(lines, row))
+    if (row.find("antenna conductor size") != std::string::npos) {
+      found = true;
+      CHECK_THAT(row, Contains("1.62 mm") || Contains("1.63 mm"));
+      CHECK_THAT(row, !Contains("0.0 m"));
+    }
+  CHECK(found);
+}
