@@ -37,7 +37,8 @@ struct DistanceOptions {
   std::string line, line_length, swr, load;
   std::string line_z0, line_loss, line_loss_freq;                      // --line user
   std::string wire_diameter, wire_spacing, velocity_factor, conductor;  // --line parallel
-  std::string ground = "full";
+  std::string ground = "epa";  // --reflection, the same default as evaluate (OET 65 Eq. 7)
+  std::string old_ground;      // --ground: renamed, refused with a pointer to --reflection
   std::string standard = "fcc";
   std::string distance, size, dish, dish_efficiency;
   bool json = false;
@@ -247,7 +248,9 @@ void add_distance(CLI::App& root, Commands& commands) {
   sub->add_option("--wire-spacing", o->wire_spacing, "--line parallel: centre-to-centre spacing, e.g. 150mm");
   sub->add_option("--velocity-factor", o->velocity_factor, "--line parallel/user: velocity factor (0..1)");
   sub->add_option("--conductor", o->conductor, "--line parallel: copper or copper-clad-steel");
-  sub->add_option("--ground", o->ground, "Ground reflection: none (1), epa (2.56) or full (4, default)");
+  sub->add_option("--reflection", o->ground,
+                  "Ground reflection factor: none (1), epa (2.56, default, as `evaluate`) or full (4)");
+  sub->add_option("--ground", o->old_ground, "Renamed: use --reflection none|epa|full")->group("");
   sub->add_option("--standard", o->standard, "Limits: fcc (default), icnirp2020, icnirp1998, sc6");
   sub->add_option("--distance", o->distance, "Minimum distance to a person: check it and the FCC exemption");
   sub->add_option("--size", o->size, "Largest dimension of the antenna (its near field reaches 2·L²/λ)");
@@ -278,8 +281,11 @@ void add_distance(CLI::App& root, Commands& commands) {
     auto gain = parse_gain(o->gain, option_where("--gain"));
     if (std::abs(gain.dbi()) > kMaxGainDbi)
       throw InputError(option_where("--gain"), "\"" + o->gain + "\" is beyond ±60 dBi");
+    if (!o->old_ground.empty())
+      throw InputError(option_where("--ground"), "renamed: use --reflection none|epa|full (ground classes such as "
+                                                 "medium-dry-ground are for `wire --ground` and the station file)");
     const auto ground = exposure::ground_factor_from_string(o->ground);
-    if (!ground) throw InputError(option_where("--ground"), "expected none, epa or full, got \"" + o->ground + "\"");
+    if (!ground) throw InputError(option_where("--reflection"), "expected none, epa or full, got \"" + o->ground + "\"");
     const auto standard = limits::standard_from_string(o->standard);
     if (!standard)
       throw InputError(option_where("--standard"), "expected fcc, icnirp2020, icnirp1998 or sc6, got \"" + o->standard + "\"");
@@ -406,6 +412,9 @@ void add_distance(CLI::App& root, Commands& commands) {
       j["gain_dbi"] = worst->chain.gain.dbi();
       j["standard"] = limits::to_string(*standard);
       j["ground"] = dish ? json("not applied (aperture model on the beam axis)") : json(exposure::to_string(*ground));
+      j["reflection_note"] = (!dish && *ground != exposure::GroundFactor::epa)
+                                 ? json("differs from evaluate, which screens with epa (2.56, OET 65 Eq. 7)")
+                                 : json(nullptr);
       j["ground_factor"] = dish ? json(nullptr) : json(exposure::ground_factor_ratio(*ground));
       j["duty"] = {{"fraction", in.duty.value}, {"source", in.duty_source}};
       j["pattern"] = in.pattern.describe();
@@ -511,6 +520,10 @@ void add_distance(CLI::App& root, Commands& commands) {
     else
       out << "Far-field screening at " << sig(f.value() / 1e6, 6) << " MHz (" << table.name << ", ground factor "
           << exposure::to_string(*ground) << " = " << exposure::ground_factor_ratio(*ground) << ")\n";
+    if (!dish && *ground != exposure::GroundFactor::epa)
+      out << "note: --reflection " << exposure::to_string(*ground) << " differs from `evaluate`, which screens with "
+          << "epa (2.56, OET 65 Eq. 7); the distances here are "
+          << (exposure::ground_factor_ratio(*ground) > 2.56 ? "larger" : "smaller") << " than evaluate's\n";
     for (const auto& t : tiers) {
       out << "\n" << limits::to_string(t.limit.tier) << " (" << sig(t.limit.averaging.value() / 60.0) << " min average)\n";
       out << "  power chain:\n";

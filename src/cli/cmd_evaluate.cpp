@@ -23,6 +23,7 @@
 #include "core/bounds.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
+#include "exposure/remedies.hpp"
 #include "exposure/work_estimate.hpp"
 #include "report/finite_check.hpp"
 #include "limits/limits_toml.hpp"
@@ -32,6 +33,7 @@
 #include "report/writers.hpp"
 #include "siting/checks.hpp"
 #include "siting/clearances_toml.hpp"
+#include "station/installation.hpp"
 #include "station/sources.hpp"
 #include "station/station_toml.hpp"
 
@@ -48,6 +50,7 @@ struct EvalOptions {
   std::string units;  // metric | imperial | both (default: both for fcc, metric otherwise)
   std::string standard;
   const CLI::Option* standard_option = nullptr;
+  std::string tables;  // --tables DIR: user feed-line / duty tables beside the built-in ones
   unsigned threads = 0;
   bool place = false;  // evaluate --place: add the placement search to the report (issue 10)
   std::size_t max_unknowns = em::kMaxUnknowns;
@@ -81,15 +84,15 @@ void check_out_dir(const std::string& dir) {
     throw InputError(w, "cannot write into \"" + probe.string() + "\": " + std::strerror(errno));
 }
 
-std::string read_file(const std::string& path) {
-  std::error_code ec;
-  if (std::filesystem::is_directory(path, ec)) throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
-  std::ostringstream ss;
-  ss << in.rdbuf();
-  return ss.str();
+// Applies --tables DIR to the build options; the tables live as long as `holder`.
+void use_tables(const std::string& dir, station::UserTables& holder, station::BuildOptions& bo) {
+  if (dir.empty()) return;
+  holder = station::load_user_tables(dir);
+  if (holder.feedlines) bo.user_feedlines = &*holder.feedlines;
+  if (holder.duties) bo.user_duties = &*holder.duties;
 }
+
+std::string read_file(const std::string& path) { return station::read_station_text(path); }
 
 std::optional<limits::Standard> standard_option(const std::string& s) {
   if (s.empty()) return std::nullopt;
@@ -121,7 +124,8 @@ report::SiteMap site_map(const station::Station& st, const station::Built& built
     for (double f : b.floors_m) floors += (floors.empty() ? "" : ", ") + metres(f);
     m.buildings.push_back({b.name, rpoly(b.footprint), "floors at " + floors + "; height " + metres(b.height_m)});
   }
-  for (const auto& z : st.site.zones) m.zones.push_back({z.name, z.tier, rpoly(z.polygon)});
+  for (const auto& z : st.site.zones)
+    if (z.kind == station::ZoneKind::people) m.zones.push_back({z.name, z.tier, rpoly(z.polygon)});
   std::set<std::string> drawn;
   for (std::size_t i = 0; i < built.input.sources.size(); ++i) {
     const auto& src = built.input.sources[i];
@@ -174,6 +178,8 @@ report::LinesSection lines_section(const siting::LinesReport& lr) {
     if (c.actual) lc.actual_m = c.actual->value();
     lc.pass = c.pass();
     lc.note = c.note;
+    lc.diameter = c.diameter;
+    lc.remedies = c.remedies;
     s.checks.push_back(lc);
   }
   s.assumptions = lr.assumptions;
@@ -221,6 +227,8 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   station::BuildOptions bo;
   bo.standard = standard;
   bo.max_unknowns = o.max_unknowns;
+  station::UserTables user_tables;
+  use_tables(o.tables, user_tables, bo);
   const station::Built built = station::build(st, bo);
   const report::UnitSystem units = units_option(o.units, built.standard);  // checked before the long run
 
@@ -253,13 +261,38 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.units = units;
   rec.map = site_map(st, built);
   if (!st.installation.empty())
-    rec.lines = lines_section(siting::run_checks(st.installation, siting::builtin_clearance_tables()));
-  rec.assumptions.push_back("Ground: " + station::to_string(st.site.ground) + ".");
+    rec.lines = lines_section(station::check_installation(st));
+  for (const auto& z : st.site.zones)
+    if (z.kind == station::ZoneKind::keep_out)
+      rec.cautions.push_back("Keep-out area \"" + z.name + "\"" + (z.barrier.empty() ? "" : " (" + z.barrier + ")") +
+                                ": not evaluated for " +
+                                (z.keeps_out == station::KeepsOut::everyone ? "anyone" : "the uncontrolled tier") +
+                                " — the barrier must stay in place and closed while transmitting.");
+  for (std::string u : built.unzoned) {
+    u[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(u[0])));
+    (u.rfind("Not evaluated", 0) == 0 ? rec.cautions : rec.assumptions).push_back(u + ".");
+  }
+  {
+    const em::Ground g = station::em_ground(st.site.ground);
+    rec.assumptions.push_back(g.kind == em::GroundKind::real
+                                  ? fmt::format("Ground: {} (εr {:g}, σ {:g} S/m, tables/grounds.toml).", st.site.ground,
+                                                g.eps_r, g.sigma_s_per_m)
+                                  : "Ground: " + st.site.ground + ".");
+  }
   rec.assumptions.push_back("Body line: " + ev.body_rule + ".");
   rec.assumptions.push_back(fmt::format("Zone grids at {:.3g} m spacing, 2×2 sub-points within 2 m of an antenna.",
                                         ev.grid_spacing_m));
   rec.references = report::default_references();
   rec.evaluation = std::move(ev);
+  // Computed remedies (issue 12) for the record's finding sentences (issue 13): the duty or on-air
+  // share that would comply (the keep-away distances and the PEP are in the sentence already) and
+  // the geometry change of each failed installation check.
+  for (const auto& op : rec.evaluation.operations)
+    for (const auto& rm : exposure::operation_remedies(op))
+      if (rm.kind == "max_duty" || rm.kind == "max_on_air_share") rec.remedies.push_back({op.name, rm.text});
+  if (rec.lines)
+    for (const auto& c : rec.lines->checks)
+      for (const auto& rm : c.remedies) rec.remedies.push_back({c.subject + " / " + c.rule, rm.text});
   rec.cautions = report::all_cautions(rec);
   // Every number of the record is finite, or the run fails as an internal error (exit 3).
   report::check_finite(report::to_json(rec), "evaluation record");
@@ -293,6 +326,8 @@ void common_options(CLI::App* sub, const std::shared_ptr<EvalOptions>& o) {
   sub->add_flag("--verbose", o->verbose, "Print every table and power-chain step (default: a summary of at most 100 columns)");
   sub->add_option("--units", o->units, "Lengths in metric, imperial or both (default: both for fcc, metric otherwise)");
   o->standard_option = sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6 (default: the station file's, else fcc)");
+  sub->add_option("--tables", o->tables,
+                  "Directory with user tables (feedlines.toml, duty.toml) used beside the built-in ones");
   sub->add_option("--threads", o->threads, "Worker threads for the grid (default: all cores)")
       ->check(CLI::Range(1u, 256u));
   sub->add_option("--max-unknowns", o->max_unknowns, "Cap on moment-method unknowns per antenna (default 4000; 16 N² bytes)")
@@ -306,6 +341,7 @@ struct FieldOptions {
   std::string at;
   std::string operation;
   std::string standard;
+  std::string tables;
   bool json = false;
 };
 
@@ -337,6 +373,8 @@ int run_field(const FieldOptions& o, std::ostream& out) {
   station::BuildOptions bo;
   bo.standard = standard_option(o.standard);
   if (!o.operation.empty()) bo.only_operation = o.operation;
+  station::UserTables user_tables;
+  use_tables(o.tables, user_tables, bo);
   const station::Built built = station::build(st, bo);
 
   nlohmann::json j;
@@ -431,6 +469,7 @@ void add_evaluate(CLI::App& root, Commands& commands) {
     sub->add_option("--at", o->at, "Point X,Y,Z in the site frame with units, e.g. 12m,-4m,1.5m")->required();
     sub->add_option("--operation", o->operation, "Only this operation (default: every operation)");
     sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6");
+    sub->add_option("--tables", o->tables, "Directory with user tables (feedlines.toml, duty.toml)");
     sub->add_flag("--json", o->json, "Print JSON");
     commands.push_back({sub, [o](std::ostream& out, std::ostream&) { return run_field(*o, out); }});
   }

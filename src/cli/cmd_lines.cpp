@@ -1,37 +1,19 @@
 // `standoff lines STATION.toml [--json]`: installation-safety checks near overhead power lines
-// (issue 6). Reads the station file itself (only [[power_line]], [[support]], [[span]]).
-#include <fstream>
+// (issue 6). Reads the file through the station loader, like evaluate/field: the antennas' own
+// wires, feed-line routes and supports are checked with the [[power_line]]/[[support]]/[[span]].
 #include <memory>
 #include <ostream>
-#include <sstream>
-
-#include <toml++/toml.h>
 
 #include <string>
 
 #include "report/finite_check.hpp"
 #include "cli/command.hpp"
 #include "siting/checks.hpp"
-#include "siting/clearances_toml.hpp"
 #include "siting/siting_toml.hpp"
+#include "station/installation.hpp"
+#include "station/station_toml.hpp"
 
 namespace standoff::cli {
-
-namespace {
-
-toml::table read_toml_file(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError(Where{path, 0, ""}, "cannot open the station file");
-  std::ostringstream text;
-  text << in.rdbuf();
-  try {
-    return toml::parse(text.str(), path);
-  } catch (const toml::parse_error& e) {
-    throw InputError(Where{path, static_cast<int>(e.source().begin.line), ""}, std::string(e.description()));
-  }
-}
-
-}  // namespace
 
 void add_lines(CLI::App& root, Commands& commands) {
   struct Options {
@@ -41,13 +23,12 @@ void add_lines(CLI::App& root, Commands& commands) {
   auto o = std::make_shared<Options>();
   auto* sub = root.add_subcommand("lines", "Installation safety near overhead power lines: fall zones, raising, "
                                            "wire sag and swing, crossings (exit 1 if any check fails)");
-  sub->add_option("STATION", o->station, "Station file (TOML) with [[power_line]], [[support]] and [[span]]")
+  sub->add_option("STATION", o->station, "Station file (TOML), the same file `evaluate` reads")
       ->required();
   sub->add_flag("--json", o->json, "Print the checks as JSON");
   commands.push_back(Command{sub, [o](std::ostream& out, std::ostream&) {
-    const toml::table root = read_toml_file(o->station);
-    const auto site = siting::parse_site_elements(root, o->station);
-    const auto report = siting::run_checks(site, siting::builtin_clearance_tables());
+    const station::Station st = station::load_station_file(o->station);
+    const auto report = station::check_installation(st);
     if (o->json) {
       const auto j = siting::lines_report_json(report);
       standoff::report::check_finite(j, "lines result");  // no NaN or inf reaches the output (issue 14)

@@ -146,7 +146,7 @@ std::vector<GridSpec> make_grids(const EvaluationInput& in, double spacing) {
       for (int j = 0; j < g.grid.ny; ++j)
         for (int i = 0; i < g.grid.nx; ++i) {
           const PlanPoint c{g.grid.origin_x_m + i * spacing, g.grid.origin_y_m + j * spacing};
-          if (inside(zone.polygon, c)) g.grid.state[static_cast<std::size_t>(j) * g.grid.nx + i] = CellState::evaluated;
+          if (in_zone(zone, c)) g.grid.state[static_cast<std::size_t>(j) * g.grid.nx + i] = CellState::evaluated;
         }
       out.push_back(std::move(g));
     }

@@ -58,7 +58,11 @@ struct ZoneInput {
   limits::Tier tier = limits::Tier::uncontrolled;
   Polygon polygon;
   std::vector<double> floors_m{0.0};
+  std::vector<Polygon> holes{};  // parts not evaluated: the zone's own holes and keep-out areas
 };
+
+// Whether the plan point lies in the zone (its polygon, not in a hole).
+inline bool in_zone(const ZoneInput& z, PlanPoint p) { return geometry::inside(geometry::Area{z.polygon, z.holes}, p); }
 
 struct PointInput {
   std::string name;

@@ -29,6 +29,11 @@ std::optional<double> keep_away(const exposure::OperationResult& op, limits::Tie
   return d ? d : s;
 }
 
+std::string strip_stop(std::string s) {
+  while (!s.empty() && (s.back() == '.' || s.back() == ' ')) s.pop_back();
+  return s;
+}
+
 // The computed remedy for `subject`, if any, with the ones used marked.
 struct Remedies {
   const std::vector<Remedy>& all;
@@ -39,16 +44,13 @@ struct Remedies {
     for (std::size_t k = 0; k < all.size(); ++k) {
       if (all[k].subject != subject || all[k].text.empty()) continue;
       used[k] = true;
-      out += (out.empty() ? "" : "; ") + all[k].text;
+      const std::string t = strip_stop(all[k].text);
+      if (("; " + out + "; ").find("; " + t + "; ") == std::string::npos) out += (out.empty() ? "" : "; ") + t;
     }
     return out;
   }
 };
 
-std::string strip_stop(std::string s) {
-  while (!s.empty() && (s.back() == '.' || s.back() == ' ')) s.pop_back();
-  return s;
-}
 
 std::string generic_remedy(const std::string& rule) {
   auto has = [&](const char* k) { return rule.find(k) != std::string::npos; };
@@ -88,8 +90,8 @@ std::vector<FailGroup> failed_groups(const Record& r) {
     }
     ++it->count;
     if (!c.line.empty() && std::find(it->lines.begin(), it->lines.end(), c.line) == it->lines.end()) it->lines.push_back(c.line);
-    if (c.actual_m) it->actual_m = it->actual_m ? std::min(*it->actual_m, *c.actual_m) : *c.actual_m;
-    if (c.required_m) it->required_m = it->required_m ? std::max(*it->required_m, *c.required_m) : *c.required_m;
+    if (c.actual_m && !c.diameter) it->actual_m = it->actual_m ? std::min(*it->actual_m, *c.actual_m) : *c.actual_m;
+    if (c.required_m && !c.diameter) it->required_m = it->required_m ? std::max(*it->required_m, *c.required_m) : *c.required_m;
   }
   return out;
 }
@@ -152,7 +154,9 @@ std::vector<Finding> findings(const Record& r) {
     if (!g.lines.empty()) s += " of " + join_and(the(g.lines));
     if (g.required_m) s += " where at least " + fmtx::length_up(g.required_m, u) + " is required";
     s += " (" + g.source + ")";
-    const std::string computed = remedies.take(g.subject);
+    // A remedy computed for this rule and subject ("<subject> / <rule>"), else one for the subject.
+    std::string computed = remedies.take(g.subject + " / " + g.rule);
+    if (computed.empty()) computed = remedies.take(g.subject);
     s += "; " + (computed.empty() ? generic_remedy(g.rule) : strip_stop(computed));
     out.push_back({g.subject, s + ".", false});
   }

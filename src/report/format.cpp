@@ -87,6 +87,18 @@ std::string permitted_power(const std::optional<double>& w) {
   return power(round_power_down(*w));
 }
 
+// Wire diameters (NFPA 70 Table 810.52 check): millimetres to 0.01 mm, required up, actual down.
+std::string check_required(const LineCheck& c, UnitSystem u) {
+  if (!c.diameter) return length_up(c.required_m, u);
+  if (!c.required_m || !std::isfinite(*c.required_m)) return "not evaluated";
+  return fmt::format("{:.2f} mm", std::ceil(*c.required_m * 1e5 * (1.0 - 1e-9)) / 100.0);
+}
+std::string check_actual(const LineCheck& c, UnitSystem u) {
+  if (!c.diameter) return length_down(c.actual_m, u);
+  if (!c.actual_m || !std::isfinite(*c.actual_m)) return "not evaluated";
+  return fmt::format("{:.2f} mm", std::floor(*c.actual_m * 1e5 * (1.0 + 1e-9)) / 100.0);
+}
+
 std::string percent_up(double ratio) {
   if (!std::isfinite(ratio)) return "not evaluated";
   if (ratio >= 10.0) return grouped(static_cast<long long>(std::ceil(ratio * 100.0 * (1.0 - 1e-9)))) + " %";

@@ -17,6 +17,9 @@ std::string power_down(const std::optional<double>& w);   // rounded DOWN, or "n
 std::string distance_up(const std::optional<double>& m);  // rounded UP to 0.1 m, or "not evaluated"
 std::string distance_up(const std::optional<double>& m, bool none);  // "none" when nothing exceeds
 std::string distance_down(const std::optional<double>& m);  // rounded DOWN (an actual clearance)
+// A check's required / actual value: a length (up / down, in the unit system) or a wire diameter in mm.
+std::string check_required(const LineCheck& c, UnitSystem u = UnitSystem::metric);
+std::string check_actual(const LineCheck& c, UnitSystem u = UnitSystem::metric);
 std::string percent_up(double ratio);                     // "212.4 %" rounded UP to 0.1 %; "23 014 %" from 1000 %
 // Lengths in the record's unit system: "3.1 m", "10.2 ft" or "3.1 m (10.2 ft)"; up or down.
 std::string length_up(const std::optional<double>& m, UnitSystem u);

@@ -6,6 +6,7 @@
 #include "report/format.hpp"
 #include "report/svg.hpp"
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -262,8 +263,10 @@ std::string to_html(const Record& r) {
       h += "<figure class=\"chart\">\n" + ratio_chart_svg(op, false, chart_marks(r, op)) + "</figure>\n";
     }
     h += "</div>\n";
-    if (!op.notes.empty()) {
+    const auto remedies = exposure::operation_remedies(op);
+    if (!op.notes.empty() || !remedies.empty()) {
       h += "<ul class=\"note\">\n";
+      for (const auto& rm : remedies) h += "<li>Remedy: " + esc(rm.text) + "</li>\n";
       for (const auto& n : op.notes) h += "<li>" + esc(n) + "</li>\n";
       h += "</ul>\n";
     }
@@ -282,8 +285,8 @@ std::string to_html(const Record& r) {
     rows.clear();
     for (const auto& c : r.lines->checks) {
       if (c.pass) continue;
-      rows.push_back({esc(c.rule), esc(c.subject), esc(c.line), esc(fmtx::length_up(c.required_m, r.units)),
-                      esc(fmtx::length_down(c.actual_m, r.units)), badge("fail"), esc(c.note)});
+      rows.push_back({esc(c.rule), esc(c.subject), esc(c.line), esc(fmtx::check_required(c, r.units)),
+                      esc(fmtx::check_actual(c, r.units)), badge("fail"), esc(c.note)});
     }
     if (!rows.empty()) {
       h += "<h3>Failed checks</h3>\n" +
@@ -296,8 +299,12 @@ std::string to_html(const Record& r) {
     }
     h += "<h3>Checks by rule</h3>\n" + table({"Rule", "Failed", "Passed", "Source (cited once per rule)"}, rows, "rules");
     h += "<p class=\"note\">Every check, passed or failed, is listed in the appendix and in report.json.</p>\n";
-    if (!r.lines->assumptions.empty()) {
+    bool any_remedy = false;
+    for (const auto& c : r.lines->checks) any_remedy |= !c.remedies.empty();
+    if (!r.lines->assumptions.empty() || any_remedy) {
       h += "<ul class=\"note\">\n";
+      for (const auto& c : r.lines->checks)
+        for (const auto& rm : c.remedies) h += "<li>Remedy (" + esc(c.rule) + ", " + esc(c.subject) + "): " + esc(rm.text) + "</li>\n";
       for (const auto& a : r.lines->assumptions) h += "<li>Assumption: " + esc(a) + "</li>\n";
       h += "</ul>\n";
     }
@@ -325,8 +332,8 @@ std::string to_html(const Record& r) {
   if (r.lines && !r.lines->checks.empty()) {
     rows.clear();
     for (const auto& c : r.lines->checks) {
-      rows.push_back({esc(c.rule), esc(c.subject), esc(c.line), esc(fmtx::length_up(c.required_m, r.units)),
-                      esc(fmtx::length_down(c.actual_m, r.units)), badge(c.pass ? "pass" : "fail")});
+      rows.push_back({esc(c.rule), esc(c.subject), esc(c.line), esc(fmtx::check_required(c, r.units)),
+                      esc(fmtx::check_actual(c, r.units)), badge(c.pass ? "pass" : "fail")});
     }
     h += "<section class=\"appendix\" id=\"appendix-checks\"><h2>Appendix: every installation check</h2>\n" +
          table({"Check", "Subject", "Power line", "Required", "Actual", "Result"}, rows, "all-checks") +

@@ -3,6 +3,7 @@
 
 #include "report/findings.hpp"
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -29,6 +30,13 @@ json place(const exposure::PlaceExposure& w, bool evaluated, json& j) {
   j["quantity"] = evaluated ? json(w.quantity) : json(nullptr);
   j["peak_ratio"] = evaluated ? json(w.peak_ratio) : json(nullptr);
   return j;
+}
+
+json remedies_json(const std::vector<Remedy>& rs) {
+  json a = json::array();
+  for (const auto& r : rs)
+    a.push_back({{"kind", r.kind}, {"value", r.value ? json(*r.value) : json(nullptr)}, {"unit", r.unit}, {"text", r.text}});
+  return a;
 }
 
 json operation(const exposure::OperationResult& op) {
@@ -61,6 +69,7 @@ json operation(const exposure::OperationResult& op) {
   j["detailed_distance_reason"] = {{"controlled", why(op.detailed_distance.controlled_m, op.detailed_distance.controlled_none)},
                                    {"uncontrolled", why(op.detailed_distance.uncontrolled_m, op.detailed_distance.uncontrolled_none)}};
   j["verdict"] = exposure::to_string(op.verdict);
+  j["remedies"] = remedies_json(exposure::operation_remedies(op));
   j["notes"] = op.notes;
   j["not_evaluated_count"] = op.not_evaluated_count;
   json ne = json::array();
@@ -151,7 +160,8 @@ json to_json(const Record& r) {
                         {"required_m", opt(c.required_m)},
                         {"actual_m", opt(c.actual_m)},
                         {"pass", c.pass},
-                        {"note", c.note}});
+                        {"note", c.note},
+                        {"remedies", remedies_json(c.remedies)}});
     }
     j["power_lines"] = {{"verdict", r.lines->all_pass() ? "pass" : "fail"},
                         {"checks", checks},

@@ -4,6 +4,7 @@
 #include "report/findings.hpp"
 #include "report/format.hpp"
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -156,8 +157,10 @@ std::string to_markdown(const Record& r) {
       }
       md += table({"Point of interest", "Tier", "At", "Exposure (% of limit)"}, rows);
     }
+    const auto remedies = exposure::operation_remedies(op);
+    for (const auto& rm : remedies) md += "- Remedy: " + text(rm.text) + "\n";
     for (const auto& n : op.notes) md += "- " + text(n) + "\n";
-    if (!op.notes.empty()) md += "\n";
+    if (!op.notes.empty() || !remedies.empty()) md += "\n";
     if (!op.ratio_vs_distance.empty()) {
       md += "![Exposure ratio versus distance, " + text(op.name) + "](" + chart_file_name(op.name) + ")\n\n";
     }
@@ -168,7 +171,7 @@ std::string to_markdown(const Record& r) {
     rows.clear();
     for (const auto& c : r.lines->checks) {
       if (c.pass) continue;
-      rows.push_back({c.rule, c.subject, c.line, fmtx::length_up(c.required_m, r.units), fmtx::length_down(c.actual_m, r.units),
+      rows.push_back({c.rule, c.subject, c.line, fmtx::check_required(c, r.units), fmtx::check_actual(c, r.units),
                       "**FAIL**", c.note});
     }
     if (!rows.empty()) {
@@ -180,8 +183,14 @@ std::string to_markdown(const Record& r) {
                       s.passed > 0 ? std::to_string(s.passed) + " PASS" : "", s.source});
     }
     md += "### Checks by rule\n\n" + table({"Rule", "Failed", "Passed", "Source (cited once per rule)"}, rows);
+    bool any = !r.lines->assumptions.empty();
+    for (const auto& c : r.lines->checks)
+      for (const auto& rm : c.remedies) {
+        md += "- Remedy (" + text(c.rule) + ", " + text(c.subject) + "): " + text(rm.text) + "\n";
+        any = true;
+      }
     for (const auto& a : r.lines->assumptions) md += "- Assumption: " + text(a) + "\n";
-    if (!r.lines->assumptions.empty()) md += "\n";
+    if (any) md += "\n";
     md += "Every check is listed in the appendix at the end and in report.json.\n\n";
   } else {
     md += "The station file describes no power lines or supports; no clearance checks were made.\n\n";
@@ -202,7 +211,7 @@ std::string to_markdown(const Record& r) {
   if (r.lines && !r.lines->checks.empty()) {
     rows.clear();
     for (const auto& c : r.lines->checks) {
-      rows.push_back({c.rule, c.subject, c.line, fmtx::length_up(c.required_m, r.units), fmtx::length_down(c.actual_m, r.units),
+      rows.push_back({c.rule, c.subject, c.line, fmtx::check_required(c, r.units), fmtx::check_actual(c, r.units),
                       c.pass ? "PASS" : "**FAIL**"});
     }
     md += "## Appendix: every installation check\n\n" +

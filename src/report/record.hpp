@@ -6,6 +6,8 @@
 #pragma once
 
 #include <optional>
+
+#include "core/remedy.hpp"
 #include <string>
 #include <utility>
 #include <vector>
@@ -117,6 +119,8 @@ struct LineCheck {
   std::optional<double> actual_m;
   bool pass = false;
   std::string note;
+  bool diameter = false;  // required/actual are wire diameters (shown in mm), not clearances
+  std::vector<Remedy> remedies{};  // the change that would make the check pass (siting/checks.cpp)
 };
 
 struct LinesSection {

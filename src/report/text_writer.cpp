@@ -11,6 +11,7 @@
 #include "report/findings.hpp"
 #include "report/format.hpp"
 #include "report/writers.hpp"
+#include "exposure/remedies.hpp"
 
 namespace standoff::report {
 
@@ -216,6 +217,7 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
       out << "  " << op.not_evaluated_count
           << " place(s) not evaluated (too close for the model) — measure or use another method\n";
     }
+    for (const auto& rm : exposure::operation_remedies(op)) out << "  remedy: " << rm.text << "\n";
     for (const auto& n : op.notes) out << "  note: " << n << "\n";
   }
   out << "\n";
@@ -225,11 +227,13 @@ void write_text(const Record& r, std::ostream& out, const TextOptions& options) 
     lines.header = {"check", "subject", "power line", "required", "actual", "result", "source"};
     for (const auto& c : r.lines->checks) {
       const std::string v = c.pass ? "pass" : "fail";
-      lines.rows.push_back({c.rule, c.subject, c.line, fmtx::length_up(c.required_m, r.units),
-                            fmtx::length_down(c.actual_m, r.units),
+      lines.rows.push_back({c.rule, c.subject, c.line, fmtx::check_required(c, r.units),
+                            fmtx::check_actual(c, r.units),
                             paint(fmtx::verdict_word(v), v, options.colour), c.source});
     }
     out << "Power-line clearances\n" << lines.render("  ");
+    for (const auto& c : r.lines->checks)
+      for (const auto& rm : c.remedies) out << "  remedy (" << c.rule << ", " << c.subject << "): " << rm.text << "\n";
     for (const auto& a : r.lines->assumptions) out << "  assumption: " << a << "\n";
     out << "\n";
   }

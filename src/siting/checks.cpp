@@ -119,6 +119,72 @@ double swept_minimum(const SpanShape& s, Distance distance) {
   return std::max(0.0, best - error);
 }
 
+// The geometry change that would make a failed check pass: the distance to move (the shortfall,
+// rounded up), or the largest support, handled piece or free wire length that would pass
+// (rounded down). An unevaluated check gets what to state or measure.
+void add_remedies(Check& c, const ClearanceTables& t) {
+  if (c.pass()) return;
+  if (c.status == CheckStatus::not_evaluated) {
+    c.remedies.push_back({"state_input", std::nullopt, "",
+                          c.rule == "antenna conductor size"
+                              ? "state the wire class (`wire`, tables/clearances.toml) so the size can be checked"
+                              : "measure or ask the utility for the line's voltage and height, then re-run"});
+    return;
+  }
+  if (!c.required || !c.actual) return;
+  const double req = c.required->value(), act = c.actual->value();
+  const double shortfall = round_up(std::max(0.0, req - act), kCm);
+  auto move = [&](const std::string& what) {
+    c.remedies.push_back({"move_away", shortfall, "m",
+                          "move " + what + " at least " + metres(shortfall) + " further from " +
+                              (c.line.empty() ? std::string("where people reach") : """ + c.line + """)});
+  };
+  if (c.rule == "fall zone") {
+    move("the support's base");
+    // Largest height H (with the overhang) whose fall zone fits: max(1.5 H, H + 10 ft) <= plan distance.
+    const double h = round_down(std::min(act / t.cpsc_factor, act - t.fall_margin.value.value()), kCm);
+    if (h > 0.0)
+      c.remedies.push_back({"max_height", h, "m",
+                            "or use a support whose height plus overhang is at most " + metres(h) + " here"});
+  } else if (c.rule == "fall reach") {
+    move("the support's base");
+    const double h = round_down(c.size_m - shortfall, kCm);
+    if (h > 0.0) c.remedies.push_back({"max_height", h, "m", "or keep its height plus overhang to at most " + metres(h)});
+  } else if (c.rule == "raising: hand-held object") {
+    move("the place where it is raised");
+    const double l = round_down(c.size_m - shortfall, kCm);
+    if (l > 0.0)
+      c.remedies.push_back({"max_handled_length", l, "m",
+                            "or raise it in conductive pieces of at most " + metres(l) + " (handled_length)"});
+  } else if (c.rule == "raising: tilt-up arc") {
+    move("the pivot");
+    c.remedies.push_back({"tilt_direction", std::nullopt, "", "or lay the mast down pointing away from the line"});
+  } else if (c.rule == "standing clearance") {
+    move("the wire's closest point");
+    c.remedies.push_back({"tension", std::nullopt, "",
+                          "or shorten the span, tension it harder or add an anchor so that sag and swing stay clear"});
+  } else if (c.rule == "failed-support swing") {
+    const double l = round_down(c.size_m - shortfall, kCm);
+    if (l > 0.0)
+      c.remedies.push_back({"max_free_length", l, "m",
+                            "anchor the wire so that no free length exceeds " + metres(l) +
+                                " (an anchor point or an extra support), or move its attachment " + metres(shortfall) +
+                                " further from \"" + c.line + "\""});
+    else
+      move("the attachment");
+  } else if (c.rule == "no crossing") {
+    c.remedies.push_back({"reroute", std::nullopt, "", "re-route the wire so that it does not cross \"" + c.line + "\" in plan"});
+  } else if (c.rule == "antenna conductor size") {
+    if (c.size_m > 0.0)
+      c.remedies.push_back({"min_awg", c.size_m, "AWG",
+                            "use " + std::to_string(static_cast<int>(c.size_m)) + " AWG or heavier of a listed material"});
+  } else if (c.rule == "radiating wire height") {
+    c.remedies.push_back({"raise", shortfall, "m",
+                          "raise the lowest point at least " + metres(shortfall) +
+                              ", or fence it off (a [[zone]] of kind = \"keep_out\" around it)"});
+  }
+}
+
 }  // namespace
 
 bool LinesReport::all_pass() const {
@@ -228,6 +294,7 @@ double tilt_sweep_distance(const Support& s, const ConductorGeometry& line) {
 LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
   LinesReport r;
   r.cautions = line_cautions();
+  r.power_lines = site.power_lines.size();
 
   struct LineInfo {
     const PowerLine* line;
@@ -285,6 +352,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
                     reach, cpsc, reach, margin);
       r.checks.push_back(measured("fall zone", cpsc >= margin ? t.cpsc_source : t.fall_margin.source, s.name,
                                   li.line->name, std::max(cpsc, margin), plan, note));
+      r.checks.back().size_m = reach;
     }
   }
   for (const auto& s : site.supports) {
@@ -298,6 +366,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
       else
         r.checks.push_back(measured("fall reach", li.approach.source, s.name, li.line->name,
                                     li.approach.distance->value(), d, note));
+      r.checks.back().size_m = reach;
     }
   }
 
@@ -327,6 +396,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
                                     li.approach.distance->value(), d,
                                     what + " held at the base, hands up to " + metres(t.hand_reach.value.value()) +
                                         " (" + t.hand_reach.source + ")"));
+      r.checks.back().size_m = held;
     }
   }
 
@@ -349,6 +419,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
   }
   for (std::size_t i = 0; i < site.spans.size(); ++i) {
     const Span& sp = site.spans[i];
+    if (sp.rigid) continue;  // a rigid element falls with its support (fall reach of that support)
     const SpanShape& shape = shapes[i];
     const double length = shape.length_m();
     for (const auto& li : lines) {
@@ -369,6 +440,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
       else
         r.checks.push_back(measured("failed-support swing", li.approach.source, sp.name, li.line->name,
                                     li.approach.distance->value(), d, note));
+      r.checks.back().size_m = length;
     }
   }
 
@@ -389,11 +461,15 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
   // 5. Antenna conductor size (NFPA 70 Table 810.52).
   for (std::size_t i = 0; i < site.spans.size(); ++i) {
     const Span& sp = site.spans[i];
-    if (sp.kind != SpanKind::antenna) continue;
+    if (sp.kind != SpanKind::antenna || sp.rigid) continue;  // Table 810.52 sizes wire spans, not tubes
     const double span_len = (shapes[i].to - shapes[i].from).norm();
     if (!sp.wire) {
-      r.checks.push_back(not_evaluated("antenna conductor size", t.span_size_source, sp.name, "", std::nullopt,
-                                       "no wire class stated (give `wire` from tables/clearances.toml)"));
+      Check c = not_evaluated("antenna conductor size", t.span_size_source, sp.name, "", std::nullopt,
+                              sp.antenna ? "no wire class stated (give `wire` on antenna \"" + *sp.antenna +
+                                               "\", a class from tables/clearances.toml)"
+                                         : "no wire class stated (give `wire` from tables/clearances.toml)");
+      c.diameter = true;
+      r.checks.push_back(c);
       continue;
     }
     const SpanSizeRule* rule = nullptr;
@@ -408,6 +484,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
       c.subject = sp.name;
       c.actual = units::metres(std::round(sp.wire->diameter.value() * 1e5) / 1e5);
       c.status = CheckStatus::fail;
+      c.diameter = true;
       c.note = "material \"" + sp.wire->material +
                "\" is not listed for antenna spans: use hard-drawn copper, copper-clad steel or bronze";
       r.checks.push_back(c);
@@ -422,6 +499,8 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
     c.required = units::metres(std::round(awg_diameter(rule->max_awg).value() * 1e5) / 1e5);
     c.actual = units::metres(std::round(sp.wire->diameter.value() * 1e5) / 1e5);
     c.status = sp.wire->awg <= rule->max_awg ? CheckStatus::pass : CheckStatus::fail;
+    c.diameter = true;
+    c.size_m = rule->max_awg;  // the AWG number required (for the remedy)
     r.checks.push_back(c);
   }
 
@@ -437,6 +516,7 @@ LinesReport run_checks(const SiteElements& site, const ClearanceTables& t) {
                " where people can touch it; raise it or fence it off";
     r.checks.push_back(c);
   }
+  for (auto& c : r.checks) add_remedies(c, t);
   return r;
 }
 

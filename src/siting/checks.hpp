@@ -12,6 +12,7 @@
 #include <string>
 #include <vector>
 
+#include "core/remedy.hpp"
 #include "core/units.hpp"
 #include "siting/catenary.hpp"
 #include "siting/clearances.hpp"
@@ -31,6 +32,9 @@ struct Check {
   std::optional<units::Length> actual;
   CheckStatus status = CheckStatus::fail;
   std::string note;
+  bool diameter = false;  // required/actual are wire diameters (shown in mm), not clearances
+  double size_m = 0.0;    // the support's reach, the handled length or the wire's free length (remedies)
+  std::vector<Remedy> remedies{};  // computed for a failed or unevaluated check: the change that would pass
   bool pass() const { return status == CheckStatus::pass; }
 };
 
@@ -38,6 +42,7 @@ struct LinesReport {
   std::vector<Check> checks;
   std::vector<std::string> assumptions;  // what was assumed for unknown inputs
   std::vector<std::string> cautions;     // printed with every output
+  std::size_t power_lines = 0;           // how many power lines the checks were made against
   bool all_pass() const;
   // "pass" when every check passes, otherwise "fail" (a check that could not be evaluated fails).
   std::string verdict() const;

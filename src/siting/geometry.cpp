@@ -1,5 +1,7 @@
 #include "siting/geometry.hpp"
 
+#include "core/plan_geometry.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -8,37 +10,19 @@ namespace standoff::siting {
 
 
 namespace {
-
-double cross2(const Vec2& u, const Vec2& v) { return u.x() * v.y() - u.y() * v.x(); }
-
-bool on_segment(const Vec2& p, const Vec2& a, const Vec2& b) {
-  return std::min(a.x(), b.x()) <= p.x() && p.x() <= std::max(a.x(), b.x()) && std::min(a.y(), b.y()) <= p.y() &&
-         p.y() <= std::max(a.y(), b.y());
-}
-
+geometry::PlanPoint plan(const Vec2& v) { return {v.x(), v.y()}; }
 }  // namespace
 
+// Plan crossings and distances through the project's polygon module (core/plan_geometry.hpp,
+// Boost.Geometry).
 std::optional<Vec2> plan_crossing(const Vec2& a, const Vec2& b, const Vec2& c, const Vec2& d) {
-  const double d1 = cross2(d - c, a - c);
-  const double d2 = cross2(d - c, b - c);
-  const double d3 = cross2(b - a, c - a);
-  const double d4 = cross2(b - a, d - a);
-  if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) {
-    const double t = d1 / (d1 - d2);
-    return a + t * (b - a);
-  }
-  // Touching or collinear overlap.
-  if (d1 == 0 && on_segment(a, c, d)) return a;
-  if (d2 == 0 && on_segment(b, c, d)) return b;
-  if (d3 == 0 && on_segment(c, a, b)) return c;
-  if (d4 == 0 && on_segment(d, a, b)) return d;
-  return std::nullopt;
+  const auto p = geometry::segment_crossing(plan(a), plan(b), plan(c), plan(d));
+  if (!p) return std::nullopt;
+  return Vec2(p->x_m, p->y_m);
 }
 
 double plan_segment_distance(const Vec2& a, const Vec2& b, const Vec2& c, const Vec2& d) {
-  if (plan_crossing(a, b, c, d)) return 0.0;
-  auto lift = [](const Vec2& p) { return Vec3(p.x(), p.y(), 0.0); };
-  return segment_segment_distance(lift(a), lift(b), lift(c), lift(d));
+  return geometry::segment_distance(plan(a), plan(b), plan(c), plan(d));
 }
 
 double segment_conductor_distance(const Vec3& a, const Vec3& b, const ConductorGeometry& line) {

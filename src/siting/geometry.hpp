@@ -2,7 +2,8 @@
 // clearance checks; and the distance from a segment to a power line whose conductor runs at a
 // known height, or anywhere from a lowest height upward when its height is unknown.
 // Method: closest points of two segments by clamped parametric minimisation (C. Ericson,
-// Real-Time Collision Detection, 2005, §5.1.9); plan crossings by orientation tests (ibid. §5.1.9.1).
+// Real-Time Collision Detection, 2005, §5.1.9); plan crossings through Boost.Geometry
+// (core/plan_geometry.hpp, the project's one polygon module).
 #pragma once
 
 #include <optional>

@@ -71,6 +71,8 @@ struct Support {
   std::optional<TiltUp> tilt;
   // Longest conductive piece a person handles while raising it; nullopt = the whole support.
   std::optional<units::Length> handled_length;
+  std::string origin;  // empty for a [[support]] written by the user; else why it is implied
+  int line = 0;        // line of the [[support]] in the station file (0 when implied)
 };
 
 // One wire class from tables/clearances.toml.
@@ -101,6 +103,15 @@ struct Span {
   // Largest wind swing of the sag plane from vertical, either side; nullopt = not stated, in
   // which case any swing up to horizontal (90°) is assumed.
   std::optional<units::Angle> swing;
+  // Where the span comes from: empty for a [[span]] written by the user, else e.g. "antenna
+  // \"doublet\", wire 1" for a wire taken from the antenna's own model (station/installation.hpp).
+  std::string origin;
+  std::optional<std::string> antenna;    // the [[antenna]] whose wire this is, if any
+  std::optional<std::string> feed_line;  // the [[feed_line]] this span is part of, if any
+  // A rigid element (tube, Yagi element, vertical radiator): it does not sag, swing free about
+  // one end, or fall under NFPA 70 Table 810.52 wire sizes; it falls with its support.
+  bool rigid = false;
+  int line = 0;  // line of the [[span]] in the station file (0 when taken from an antenna or route)
 };
 
 struct SiteElements {

@@ -124,6 +124,7 @@ PowerLine parse_line(const Fields& f) {
 Support parse_support(const Fields& f) {
   f.only({"name", "kind", "base", "height", "overhang", "tilt_pivot_height", "tilt_direction", "handled_length"});
   Support s;
+  s.line = f.line_of(nullptr);
   s.name = f.string("name");
   s.kind = choice<SupportKind>(f, "kind", {{"mast", SupportKind::mast}, {"tower", SupportKind::tower},
                                            {"tree", SupportKind::tree}, {"pole", SupportKind::pole}});
@@ -182,8 +183,10 @@ EndResult span_end(const Fields& f, std::string_view key, std::string_view heigh
 }
 
 Span parse_span(const Fields& f, const std::vector<Support>& supports, const ClearanceTables& tables) {
-  f.only({"name", "kind", "from", "from_height", "to", "to_height", "wire", "weight", "tension", "sag", "swing"});
+  f.only({"name", "kind", "from", "from_height", "to", "to_height", "wire", "weight", "tension", "sag", "swing",
+          "antenna", "feed_line"});
   Span s;
+  s.line = f.line_of(nullptr);
   s.name = f.string("name");
   s.kind = choice<SpanKind>(f, "kind", {{"antenna", SpanKind::antenna}, {"feed_line", SpanKind::feed_line},
                                         {"halyard", SpanKind::halyard}});
@@ -195,6 +198,14 @@ Span parse_span(const Fields& f, const std::vector<Support>& supports, const Cle
   s.to_support = to.support;
   if (s.from.x == s.to.x && s.from.y == s.to.y && s.from.z == s.to.z)
     throw InputError(f.where("to"), "the span's two ends are the same point");
+  // Which antenna or feed line this span belongs to (checked against the station by the station
+  // loader: station/installation.cpp).
+  s.antenna = f.opt_string("antenna");
+  s.feed_line = f.opt_string("feed_line");
+  if (s.antenna && s.kind != SpanKind::antenna)
+    throw InputError(f.where("antenna"), "only allowed on a span of kind = \"antenna\"");
+  if (s.feed_line && s.kind != SpanKind::feed_line)
+    throw InputError(f.where("feed_line"), "only allowed on a span of kind = \"feed_line\"");
   if (auto w = f.opt_string("wire")) {
     const WireClass* wc = tables.find_wire(*w);
     if (!wc) {
@@ -284,9 +295,16 @@ nlohmann::json lines_report_json(const LinesReport& report) {
     j["pass"] = c.pass();
     j["status"] = to_string(c.status);
     j["note"] = c.note;
+    j["quantity"] = c.diameter ? "diameter" : "distance";
+    nlohmann::json rem = nlohmann::json::array();
+    for (const auto& x : c.remedies)
+      rem.push_back({{"kind", x.kind}, {"value", x.value ? nlohmann::json(*x.value) : nlohmann::json(nullptr)},
+                     {"unit", x.unit}, {"text", x.text}});
+    j["remedies"] = rem;
     checks.push_back(j);
   }
   return nlohmann::json{{"verdict", report.verdict()},
+                        {"power_lines", report.power_lines},
                         {"checks", checks},
                         {"assumptions", report.assumptions},
                         {"cautions", report.cautions}};
@@ -294,7 +312,11 @@ nlohmann::json lines_report_json(const LinesReport& report) {
 
 std::string lines_report_text(const LinesReport& report) {
   std::string out = "Installation safety near power lines\n";
-  if (report.checks.empty()) out += "  (no power lines, supports or wire spans in this station file)\n";
+  if (report.power_lines == 0)
+    out += "  (this station file describes no overhead power line: only the antennas' own checks were made)\n";
+  else
+    out += fmt::format("  checked against {} power line{}\n", report.power_lines, report.power_lines == 1 ? "" : "s");
+  if (report.checks.empty()) out += "  (no antenna wire, feed-line route or support to check)\n";
   for (const auto& c : report.checks) {
     const std::string req = c.required ? fmt::format("{:.2f} m", c.required->value()) : std::string("—");
     const std::string act = c.actual ? fmt::format("{:.2f} m", c.actual->value()) : std::string("—");
@@ -309,6 +331,7 @@ std::string lines_report_text(const LinesReport& report) {
     else
       out += fmt::format("      required {}, actual {}\n", req, act);
     out += fmt::format("      {}\n      source: {}\n", c.note, c.source);
+    for (const auto& x : c.remedies) out += "      remedy: " + x.text + "\n";
   }
   if (!report.assumptions.empty()) {
     out += "Assumptions\n";

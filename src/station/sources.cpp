@@ -3,17 +3,24 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <filesystem>
+#include <fstream>
+#include <set>
 #include <sstream>
+
+#include <fmt/format.h>
 
 #include "core/constants.hpp"
 #include "core/suggest.hpp"
 #include "em/builders.hpp"
 #include "em/fields.hpp"
+#include "em/grounds_toml.hpp"
 #include "exposure/aperture.hpp"
 #include "exposure/screening.hpp"
 #include "limits/limits_toml.hpp"
 #include "power/chain.hpp"
 #include "power/power_tables_toml.hpp"
+#include "station/antenna_model.hpp"
 
 namespace standoff::station {
 
@@ -86,33 +93,6 @@ exposure::FieldFunction aperture_source(Eigen::Vector3d c, exposure::ApertureReg
   };
 }
 
-em::Model wire_model(const Antenna& a, double f_hz, const em::Ground& ground, std::vector<std::string>& notes) {
-  em::Placement at{a.position.x_m, a.position.y_m, a.height_m, a.azimuth_rad};
-  em::Conductor wire;
-  wire.radius_m = a.wire_diameter_m.value_or(0.002) / 2.0;
-  if (!a.wire_diameter_m) notes.push_back("wire diameter not stated: 2 mm assumed");
-  switch (a.kind) {
-    case AntennaKind::dipole: return em::dipole(f_hz, *a.length_m, at, wire, ground);
-    case AntennaKind::inverted_v:
-      return em::inverted_v(f_hz, *a.length_m, (constants::pi - *a.apex_angle_rad) / 2.0, at, wire, ground);
-    case AntennaKind::vertical:
-      if (a.height_m <= 0.0) {
-        notes.push_back("ground-mounted vertical: its radial system is modelled as a perfect ground plane "
-                        "(usually conservative above ground)");
-        return em::monopole(f_hz, *a.length_m, at, wire, em::perfect_ground());
-      }
-      return em::monopole(f_hz, *a.length_m, at, wire, ground, a.radials, a.radial_length_m.value_or(0.0), 0.0);
-    case AntennaKind::yagi: {
-      const em::YagiSpec spec = em::default_yagi(*a.band_centre_hz, *a.elements);
-      notes.push_back("Yagi element lengths and spacings scaled from the design frequency " +
-                      num(*a.band_centre_hz / 1e6) + " MHz (common practice)");
-      return em::yagi(f_hz, *a.elements, spec, at, wire, ground);
-    }
-    default: break;
-  }
-  throw std::logic_error("wire_model: not a wire antenna");
-}
-
 double max_extent(const em::Model& m) {
   double d = 0.0;
   for (const auto& w1 : m.wires)
@@ -137,6 +117,19 @@ std::string antenna_key_for(const InputError& e) {
   return "kind";
 }
 
+// The impedance the feed line sees: the antenna's, through an end-fed antenna's n:1 matching unit
+// (an ideal transformer: Z/n). An end-fed wire without a stated ratio is taken with the usual
+// 49:1 unit (common practice (no source)) rather than unmatched, which would over-state the line
+// loss and so under-state the power radiated.
+std::complex<double> line_side_impedance(const Antenna& a, std::complex<double> z, std::vector<std::string>& notes) {
+  if (a.kind != AntennaKind::end_fed_half_wave) return z;
+  const double n = a.matching_ratio.value_or(49.0);
+  notes.push_back("end-fed matching unit " + num(n) + ":1" + (a.matching_ratio ? "" : " assumed (not stated)") +
+                  ": the line sees the wire's feed impedance / " + num(n) +
+                  "; the unit's own loss is not counted (more power reaches the wire)");
+  return z / n;
+}
+
 struct Solved {
   std::shared_ptr<const em::Solution> solution;
   double gain = 1.0;
@@ -144,20 +137,105 @@ struct Solved {
   std::vector<std::string> notes;
 };
 
+// The zones where people can be, each without its holes and without the keep-out areas that
+// keep its tier out (a keep-out area is not evaluated for the people it keeps out).
+void add_people_zones(const Station& st, exposure::EvaluationInput& in) {
+  for (const auto& z : st.site.zones) {
+    if (z.kind != ZoneKind::people) continue;
+    exposure::ZoneInput zi{z.name, z.tier, z.polygon, z.floors_m, z.holes};
+    for (const auto& k : st.site.zones) {
+      if (k.kind != ZoneKind::keep_out) continue;
+      if (k.keeps_out == KeepsOut::uncontrolled && z.tier != limits::Tier::uncontrolled) continue;
+      if (geometry::rings_overlap(k.polygon, z.polygon)) zi.holes.push_back(k.polygon);
+    }
+    in.zones.push_back(std::move(zi));
+  }
+}
+
+// The parts of the property (its boundary) that no zone and no keep-out area covers: reported as
+// not evaluated, or evaluated at ground level with [site] default_tier. Slivers under 0.5 m² (a
+// grid cell's share of rounding) are ignored.
+void add_unzoned(const Station& st, exposure::EvaluationInput& in, std::vector<std::string>& notes) {
+  std::vector<geometry::Area> covered;
+  for (const auto& z : st.site.zones) covered.push_back(geometry::Area{z.polygon, z.kind == ZoneKind::people ? z.holes : std::vector<Polygon>{}});
+  int n = 0;
+  for (const auto& part : geometry::difference(st.site.boundary, covered)) {
+    const double a = geometry::area(part);
+    if (a < 0.5) continue;
+    ++n;
+    const auto [lo, hi] = geometry::bounds(part.outer);
+    const std::string m2 = fmt::format("{:.0f}", std::ceil(a - 1e-9));  // rounded up: at least this much
+    const std::string where = "x " + num(lo.x_m, 3) + " to " + num(hi.x_m, 3) + " m, y " + num(lo.y_m, 3) + " to " +
+                              num(hi.y_m, 3) + " m";
+    if (st.site.default_tier) {
+      const std::string name = "unzoned part " + std::to_string(n);
+      in.zones.push_back({name, *st.site.default_tier, part.outer, {0.0}, part.holes});
+      notes.push_back("no zone covers " + m2 + " m² of the property (" + where + "): evaluated as \"" + name +
+                      "\" with [site] default_tier = " + limits::to_string(*st.site.default_tier));
+    } else {
+      notes.push_back("not evaluated: no zone covers " + m2 + " m² of the property (" + where +
+                      ") — add a [[zone]] there or give [site] default_tier");
+    }
+  }
+}
+
+// An attic or indoor antenna: the building does not shield, so its floors are evaluated. When no
+// zone covers the building's floors, they are added as an uncontrolled zone (the most protective
+// tier: anyone may be indoors).
+void add_indoor_zones(const Station& st, exposure::EvaluationInput& in) {
+  std::set<std::string> done;
+  for (const auto& a : st.antennas) {
+    if (a.inside_building.empty() || !done.insert(a.inside_building).second) continue;
+    bool covered = false;
+    for (const auto& z : st.site.zones) covered |= z.building == a.inside_building;
+    if (covered) continue;
+    for (const auto& b : st.site.buildings)
+      if (b.name == a.inside_building)
+        in.zones.push_back({b.name + " (floors, antenna inside)", limits::Tier::uncontrolled, b.footprint, b.floors_m});
+  }
+}
+
 }  // namespace
 
-em::Ground em_ground(GroundKind g) {
-  // Ground constants: REFERENCES.md §6 after ITU-R P.527 (from memory, verify against ITU-R P.527
-  // Figure 1 rows); "average" is the antenna literature's convention (MOM-NOTES §4).
-  switch (g) {
-    case GroundKind::free_space: return em::free_space();
-    case GroundKind::perfect: return em::perfect_ground();
-    case GroundKind::average: return em::real_ground(15.0, 0.005, "average ground (εr 15, 0.005 S/m)");
-    case GroundKind::poor: return em::real_ground(4.0, 0.001, "poor ground (εr 4, 0.001 S/m)");
-    case GroundKind::good: return em::real_ground(25.0, 0.02, "good ground (εr 25, 0.02 S/m)");
-    case GroundKind::sea_water: return em::real_ground(70.0, 5.0, "sea water (εr 70, 5 S/m)");
+em::Ground em_ground(const std::string& name) {
+  // One ground table for the station file and the command line: tables/grounds.toml (ITU-R P.527
+  // classes, from memory, verify against ITU-R P.527 Fig. 1; "average" is the antenna literature's
+  // convention, MOM-NOTES §4), plus perfect and free-space.
+  return em::ground_by_name(name, Where{"station file", 0, "site.ground"});
+}
+
+UserTables load_user_tables(const std::string& dir) {
+  namespace fs = std::filesystem;
+  const Where w{"command line", 0, "--tables"};
+  std::error_code ec;
+  if (!fs::is_directory(dir, ec)) throw InputError(w, "\"" + dir + "\" is not a directory");
+  auto read = [&](const fs::path& p) -> std::optional<std::string> {
+    if (!fs::is_regular_file(p, ec)) return std::nullopt;
+    std::ifstream in(p, std::ios::binary);
+    if (!in) throw InputError(Where{p.string(), 0, ""}, "cannot read the table file");
+    std::ostringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
+  };
+  UserTables t;
+  const fs::path fl = fs::path(dir) / "feedlines.toml";
+  const fs::path du = fs::path(dir) / "duty.toml";
+  if (auto text = read(fl)) {
+    t.feedlines = power::load_feedline_table(*text, fl.string());
+    for (const auto& l : t.feedlines->lines)
+      if (power::builtin_feedline_table().find(l.name))
+        throw InputError(Where{fl.string(), l.source_line, "name"},
+                         "line class \"" + l.name + "\" is built in: give the user class another name");
   }
-  return em::free_space();
+  if (auto text = read(du)) {
+    t.duties = power::load_duty_table(*text, du.string());
+    for (const auto& m : t.duties->modes)
+      if (power::builtin_duty_table().find(m.name))
+        throw InputError(Where{du.string(), 0, "name"}, "mode \"" + m.name + "\" is built in: give the user mode another name");
+  }
+  if (!t.feedlines && !t.duties)
+    throw InputError(w, "\"" + dir + "\" holds neither feedlines.toml nor duty.toml");
+  return t;
 }
 
 Built build(const Station& st, const BuildOptions& options) {
@@ -169,7 +247,9 @@ Built build(const Station& st, const BuildOptions& options) {
   in.station = st.name;
   in.standard = out.standard;
   in.limits_source = table.source();
-  for (const auto& z : st.site.zones) in.zones.push_back({z.name, z.tier, z.polygon, z.floors_m});
+  add_people_zones(st, in);
+  add_unzoned(st, in, out.unzoned);
+  add_indoor_zones(st, in);
   for (const auto& p : st.site.points) in.points.push_back({p.name, p.tier, {p.at.x_m, p.at.y_m, p.at.z_m}});
 
   const power::DutyTable& duties = power::builtin_duty_table();
@@ -197,6 +277,10 @@ Built build(const Station& st, const BuildOptions& options) {
     src.frequency_hz = f_hz;
     src.pep_w = tx.pep.value();
     src.centre = {ant.position.x_m, ant.position.y_m};
+    if (!ant.inside_building.empty())
+      src.notes.push_back("caution: antenna inside building \"" + ant.inside_building +
+                          "\" (attic or indoor): walls and roof do not shield, so the building's floors are "
+                          "evaluated; keep people away from the wires and follow local codes and licensed practice");
 
     // Limits at this frequency for both tiers (outside the table: an error, never extrapolated).
     exposure::SourceLimits lim;
@@ -223,10 +307,12 @@ Built build(const Station& st, const BuildOptions& options) {
     ci.frequency = op.frequency;
     if (!op.mode.empty()) {
       const power::DutyMode* m = duties.find(op.mode);
+      if (!m && options.user_duties) m = options.user_duties->find(op.mode);
       if (!m)
         throw InputError(where_in(st, "operation", oi, op.line, "mode"),
                          "unknown mode \"" + op.mode + "\"" + did_you_mean(op.mode, split_names(duties.names())) +
-                             ": expected one of " + duties.names());
+                             ": expected one of " + duties.names() +
+                             (options.user_duties ? ", " + options.user_duties->names() : std::string()));
       ci.duty = m->duty;
       ci.duty_source = "mode " + m->name + ", " + m->source;
     } else {
@@ -252,7 +338,7 @@ Built build(const Station& st, const BuildOptions& options) {
       if (it == solved.end()) {
         Solved s;
         try {
-          em::Model model = wire_model(ant, f_hz, site_ground, s.notes);
+          em::Model model = antenna_model(ant, f_hz, site_ground, s.notes);
           em::SolveOptions so;
           so.integrate_pattern = false;
           so.max_unknowns = options.max_unknowns;
@@ -297,15 +383,17 @@ Built build(const Station& st, const BuildOptions& options) {
 
     // Feed line, with the antenna's own impedance when it is modelled.
     if (fl) {
-      const power::FeedLine* cls = line_classes.find(fl->line_class);
+      const power::FeedLine* cls = fl->inline_line ? &*fl->inline_line : line_classes.find(fl->line_class);
+      if (!cls && options.user_feedlines) cls = options.user_feedlines->find(fl->line_class);
       const Where wl = where_in(st, "feed_line", index_of(st.feed_lines, fl), fl->line, "class");
       if (!cls)
         throw InputError(wl, "unknown feed-line class \"" + fl->line_class + "\"" +
                                  did_you_mean(fl->line_class, split_names(line_classes.names())) + ": expected one of " +
-                                 line_classes.names());
+                                 line_classes.names() +
+                                 (options.user_feedlines ? ", " + options.user_feedlines->names() : std::string()));
       power::LoadSpec load = power::LoadSpec::matched_load();
       if (fl->swr) load = power::LoadSpec::from_swr(*fl->swr);
-      else if (solution) load = power::LoadSpec::from_impedance(solution->impedance());
+      else if (solution) load = power::LoadSpec::from_impedance(line_side_impedance(ant, solution->impedance(), src.notes));
       else src.notes.push_back("SWR at the antenna not stated: a matched line assumed (least loss, most power)");
       ci.line = power::LineSpec{*cls, fl->length, load};
     }

@@ -12,6 +12,7 @@
 #include "exposure/evaluate.hpp"
 #include "limits/limits.hpp"
 #include "power/chain.hpp"
+#include "power/power_tables_toml.hpp"
 #include "station/station.hpp"
 
 namespace standoff::station {
@@ -20,7 +21,18 @@ struct BuildOptions {
   std::optional<limits::Standard> standard;  // overrides the station file's standard (--standard)
   std::optional<std::string> only_operation;  // build just this operation (for `standoff field`)
   std::size_t max_unknowns = em::kMaxUnknowns;  // MoM matrix cap (--max-unknowns)
+  // User tables given with --tables DIR, looked up beside the built-in ones (null: none).
+  const power::FeedLineTable* user_feedlines = nullptr;
+  const power::DutyTable* user_duties = nullptr;
 };
+
+// The user tables of a --tables directory: DIR/feedlines.toml and/or DIR/duty.toml. InputError
+// if DIR is not a directory, holds neither file, or a user class repeats a built-in name.
+struct UserTables {
+  std::optional<power::FeedLineTable> feedlines;
+  std::optional<power::DutyTable> duties;
+};
+UserTables load_user_tables(const std::string& dir);
 
 // Everything the evaluation needs, plus the solved wire models (for the report's map and notes).
 struct Built {
@@ -38,6 +50,9 @@ struct Built {
     std::optional<power::LineSpec> line;
   };
   std::vector<SourceDetail> details;
+  // Parts of the property that no zone covers: "not evaluated: no zone covers …", or evaluated
+  // with [site] default_tier (then said so).
+  std::vector<std::string> unzoned;
 };
 
 // Throws InputError naming the station file, line and field for anything the tables or the antenna
@@ -45,8 +60,8 @@ struct Built {
 // antenna geometry the MoM engine cannot model).
 Built build(const Station& station, const BuildOptions& options = {});
 
-// em ground for a station ground class (ITU-R P.527 classes; "average" is the antenna literature's
-// convention 0.005 S/m, εr 13 — MOM-NOTES §4).
-em::Ground em_ground(GroundKind g);
+// em ground for a station ground name (tables/grounds.toml: ITU-R P.527 classes; "average" is the
+// antenna literature's convention 0.005 S/m, εr 13 — MOM-NOTES §4; perfect; free-space).
+em::Ground em_ground(const std::string& name);
 
 }  // namespace standoff::station

@@ -2,18 +2,6 @@
 
 namespace standoff::station {
 
-std::string to_string(GroundKind g) {
-  switch (g) {
-    case GroundKind::free_space: return "free_space";
-    case GroundKind::perfect: return "perfect";
-    case GroundKind::average: return "average";
-    case GroundKind::poor: return "poor";
-    case GroundKind::good: return "good";
-    case GroundKind::sea_water: return "sea_water";
-  }
-  return "average";
-}
-
 std::string to_string(AntennaKind k) {
   switch (k) {
     case AntennaKind::dipole: return "dipole";
@@ -23,13 +11,19 @@ std::string to_string(AntennaKind k) {
     case AntennaKind::gain_only: return "gain";
     case AntennaKind::collinear: return "collinear";
     case AntennaKind::aperture: return "aperture";
+    case AntennaKind::folded_dipole: return "folded_dipole";
+    case AntennaKind::loop: return "loop";
+    case AntennaKind::end_fed_half_wave: return "end_fed_half_wave";
+    case AntennaKind::ocf_dipole: return "ocf_dipole";
+    case AntennaKind::wires: return "wires";
   }
   return "gain";
 }
 
 bool is_wire(AntennaKind k) {
   return k == AntennaKind::dipole || k == AntennaKind::inverted_v || k == AntennaKind::vertical ||
-         k == AntennaKind::yagi;
+         k == AntennaKind::yagi || k == AntennaKind::folded_dipole || k == AntennaKind::loop ||
+         k == AntennaKind::end_fed_half_wave || k == AntennaKind::ocf_dipole || k == AntennaKind::wires;
 }
 
 namespace {

@@ -14,6 +14,10 @@ namespace standoff::station {
 // installation arrays [[power_line]], [[support]] and [[span]] and hands them to the siting parser.
 Station load_station(std::string_view toml_text, const std::string& file);
 
+// The text of the station file at `path`: InputError if it cannot be read, is a directory or is
+// empty (every command reads station files through this and load_station).
+std::string read_station_text(const std::string& path);
+
 // Reads the file at `path` (InputError if it cannot be read) and loads it.
 Station load_station_file(const std::string& path);
 

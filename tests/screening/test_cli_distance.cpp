@@ -22,7 +22,7 @@ test::CliResult run(const std::vector<std::string>& args) { return test::run_cli
 
 TEST_CASE("acceptance: 144 MHz, 1500 W, 24 dBi, EPA ground", "[cli][distance]") {
   const auto r = run({"distance", "--freq", "144MHz", "--power", "1500W", "--gain", "24dBi", "--duty", "100%",
-                      "--ground", "epa", "--json"});
+                      "--reflection", "epa", "--json"});
   INFO(r.err);
   REQUIRE(r.code == 0);
   const auto j = nlohmann::json::parse(r.out);
@@ -76,7 +76,8 @@ TEST_CASE("bad input is refused with exit 2 and nothing on stdout", "[cli][dista
       Bad{{"--power", "1500"}, "no unit"},
       Bad{{"--freq", "14.2"}, "no unit"},
       Bad{{"--mode", "smoke-signals"}, "unknown mode"},
-      Bad{{"--ground", "half"}, "none, epa or full"},
+      Bad{{"--reflection", "half"}, "none, epa or full"},
+      Bad{{"--ground", "epa"}, "renamed: use --reflection"},
       Bad{{"--line", "rg-213", "--line-length", "30m", "--freq", "3GHz"}, "outside the data"},
       Bad{{"--line", "rg-999", "--line-length", "30m"}, "unknown line class"},
       Bad{{"--line", "rg-213"}, "--line-length"},
