@@ -36,9 +36,9 @@ std::string strip_stop(std::string s) {
 
 // The computed remedy for `subject`, if any, with the ones used marked.
 struct Remedies {
-  const std::vector<Remedy>& all;
+  const std::vector<RemedyNote>& all;
   std::vector<bool> used;
-  explicit Remedies(const std::vector<Remedy>& r) : all(r), used(r.size(), false) {}
+  explicit Remedies(const std::vector<RemedyNote>& r) : all(r), used(r.size(), false) {}
   std::string take(const std::string& subject) {
     std::string out;
     for (std::size_t k = 0; k < all.size(); ++k) {

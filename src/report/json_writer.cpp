@@ -32,7 +32,7 @@ json place(const exposure::PlaceExposure& w, bool evaluated, json& j) {
   return j;
 }
 
-json remedies_json(const std::vector<Remedy>& rs) {
+json remedies_json(const std::vector<standoff::Remedy>& rs) {
   json a = json::array();
   for (const auto& r : rs)
     a.push_back({{"kind", r.kind}, {"value", r.value ? json(*r.value) : json(nullptr)}, {"unit", r.unit}, {"text", r.text}});

@@ -120,7 +120,7 @@ struct LineCheck {
   bool pass = false;
   std::string note;
   bool diameter = false;  // required/actual are wire diameters (shown in mm), not clearances
-  std::vector<Remedy> remedies{};  // the change that would make the check pass (siting/checks.cpp)
+  std::vector<standoff::Remedy> remedies{};  // the change that would make the check pass (siting/checks.cpp)
 };
 
 struct LinesSection {
@@ -138,7 +138,9 @@ struct Reference {
 // A remedy computed elsewhere (e.g. by the installation checks) for one finding: `subject` is the
 // operation, support or span the remedy is for; the finding sentence about that subject ends
 // with `text`. A remedy whose subject matches no finding is said as a sentence of its own.
-struct Remedy {
+// A remedy sentence addressed to one finding (an operation, a group, or "<subject> / <rule>" of a
+// failed installation check), used by the finding sentences (report/findings.cpp).
+struct RemedyNote {
   std::string subject;
   std::string text;
 };
@@ -154,7 +156,7 @@ struct Record {
   std::vector<std::string> assumptions;
   std::vector<Reference> references;
   std::vector<std::string> cautions;
-  std::vector<Remedy> remedies;
+  std::vector<RemedyNote> remedies;
   UnitSystem units = UnitSystem::both;
   // Placement search (`evaluate --place`, issue 10): a self-contained HTML section and the heat
   // map file, built by report/place_report.cpp; absent unless asked for.

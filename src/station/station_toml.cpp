@@ -1,11 +1,8 @@
 #include "station/station_toml.hpp"
 
-<<<<<<< HEAD
-#include <charconv>
-=======
 #include <algorithm>
+#include <charconv>
 #include <cmath>
->>>>>>> issue-12
 #include <filesystem>
 #include <fstream>
 #include <set>
@@ -473,7 +470,7 @@ void read_wire_shape(const Reader& r, Antenna& a) {
     if (!(*a.second_wire_diameter_m > 0.0))
       throw InputError(r.where("second_wire_diameter"), "must be greater than zero");
   }
-  if (auto n = r.opt_int("sides")) {
+  if (auto n = r.opt_int("sides", 3, 64)) {
     if (*n < 3 || *n > 64) throw InputError(r.where("sides"), "must be 3 to 64");
     a.sides = *n;
   }
@@ -510,7 +507,7 @@ void read_wire_shape(const Reader& r, Antenna& a) {
     }
     a.free_wires.push_back(fw);
   }
-  const auto fw = r.opt_int("feed_wire");
+  const auto fw = r.opt_int("feed_wire", 1, 1000);
   if (!fw) throw InputError(r.where_table_key("feed_wire"), "missing (required for kind = \"wires\"): the fed wire, 1 = the first");
   if (*fw < 1 || static_cast<std::size_t>(*fw) > a.free_wires.size())
     throw InputError(r.where("feed_wire"), "must be 1 to " + std::to_string(a.free_wires.size()) + " (a wire of the list)");
@@ -530,15 +527,11 @@ Antenna read_antenna(const Reader& r) {
   auto k = antenna_kind(kind);
   if (!k)
     throw InputError(r.where("kind"),
-<<<<<<< HEAD
                      "unknown antenna kind \"" + kind + "\"" +
-                         did_you_mean(kind, {"dipole", "inverted_v", "vertical", "yagi", "gain", "collinear", "aperture"}) +
+                         did_you_mean(kind, {"dipole", "inverted_v", "vertical", "yagi", "gain", "collinear", "aperture",
+                                             "folded_dipole", "loop", "end_fed_half_wave", "ocf_dipole", "wires"}) +
                          ": expected dipole, inverted_v, vertical, yagi, gain, "
-                     "collinear or aperture");
-=======
-                     "unknown antenna kind \"" + kind + "\": expected dipole, inverted_v, vertical, yagi, gain, "
                      "collinear, aperture, folded_dipole, loop, end_fed_half_wave, ocf_dipole or wires");
->>>>>>> issue-12
   a.kind = *k;
   read_wire_shape(r, a);  // end heights, free-form wires (may set the position and height)
   if (a.kind != AntennaKind::wires) {
@@ -665,16 +658,10 @@ std::string_view demo_station_text() {
   return t ? *t : std::string_view{};
 }
 
-<<<<<<< HEAD
-Station load_station_file(const std::string& path) {
-  std::error_code ec;
-  if (std::filesystem::is_directory(path, ec)) throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
-=======
 std::string read_station_text(const std::string& path) {
   std::error_code ec;
   if (std::filesystem::is_directory(path, ec))
     throw InputError(Where{path, 0, ""}, "is a directory, not a station file");
->>>>>>> issue-12
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError(Where{path, 0, ""}, "cannot read the station file");
   std::ostringstream ss;
@@ -750,21 +737,8 @@ Station load_station(std::string_view toml_text, const std::string& file) {
 
   // [site]
   const toml::table* site_t = root["site"].as_table();
-<<<<<<< HEAD
   if (!site_t) errs.add(InputError(Where{file, 1, "site"}, "missing the [site] table"));
   if (site_t) entry("site", [&] {
-    Reader r(*site_t, file, "site", {"ground", "boundary"});
-    if (auto g = r.opt_string("ground")) {
-      auto k = ground_kind(*g);
-      if (!k)
-        throw InputError(r.where("ground"),
-                         "unknown ground \"" + *g + "\"" +
-                             did_you_mean(*g, {"free_space", "perfect", "average", "poor", "good", "sea_water"}) +
-                             ": expected free_space, perfect, average, poor, good or sea_water");
-      st.site.ground = *k;
-=======
-  if (!site_t) throw InputError(Where{file, 1, "site"}, "missing the [site] table");
-  {
     Reader r(*site_t, file, "site", {"ground", "boundary", "default_tier"});
     if (auto t = r.opt_string("default_tier")) {
       auto tt = limits::tier_from_string(*t);
@@ -774,7 +748,6 @@ Station load_station(std::string_view toml_text, const std::string& file) {
     if (auto g = r.opt_string("ground")) {
       em::ground_by_name(*g, r.where("ground"));  // the names of `wire --ground` (tables/grounds.toml)
       st.site.ground = *g;
->>>>>>> issue-12
     }
     st.site.boundary = polygon(r, "boundary");
   });
@@ -798,14 +771,9 @@ Station load_station(std::string_view toml_text, const std::string& file) {
 
   if (const auto* a = tables("zone")) {
     std::size_t i = 0;
-<<<<<<< HEAD
     for (const auto& n : *a) entry("zone", [&] {
-      Reader r(*n.as_table(), file, indexed("zone", i++), {"name", "polygon", "building", "tier", "floors"});
-=======
-    for (const auto& n : *a) {
       Reader r(*n.as_table(), file, indexed("zone", i++),
                {"name", "polygon", "building", "tier", "floors", "kind", "holes", "barrier", "keeps_out"});
->>>>>>> issue-12
       Zone z;
       z.line = r.line();
       z.name = r.name();
@@ -831,13 +799,9 @@ Station load_station(std::string_view toml_text, const std::string& file) {
     });
     entry("zone", [&] { check_unique(st.site.zones, "zone", file); });
   }
-<<<<<<< HEAD
-  if (st.site.zones.empty() && !failed.contains("zone"))
+  if (!failed.contains("zone") &&
+      std::none_of(st.site.zones.begin(), st.site.zones.end(), [](const Zone& z) { return z.kind == ZoneKind::people; }))
     errs.add(InputError(Where{file, 1, "zone"}, "no [[zone]]: describe at least one place where people can be"));
-=======
-  if (std::none_of(st.site.zones.begin(), st.site.zones.end(), [](const Zone& z) { return z.kind == ZoneKind::people; }))
-    throw InputError(Where{file, 1, "zone"}, "no [[zone]]: describe at least one place where people can be");
->>>>>>> issue-12
 
   if (const auto* a = tables("point")) {
     std::size_t i = 0;
@@ -871,15 +835,10 @@ Station load_station(std::string_view toml_text, const std::string& file) {
 
   if (const auto* a = tables("feed_line")) {
     std::size_t i = 0;
-<<<<<<< HEAD
     for (const auto& n : *a) entry("feed_line", [&] {
-      Reader r(*n.as_table(), file, indexed("feed_line", i++), {"name", "class", "length", "swr"});
-=======
-    for (const auto& n : *a) {
       Reader r(*n.as_table(), file, indexed("feed_line", i++),
                {"name", "class", "length", "swr", "route", "z0", "velocity_factor", "matched_loss",
                 "conductor_diameter", "spacing", "material"});
->>>>>>> issue-12
       FeedLine f;
       f.line = r.line();
       f.name = r.name();
@@ -950,15 +909,11 @@ Station load_station(std::string_view toml_text, const std::string& file) {
     errs.add(InputError(Where{file, 1, "operation"}, "no [[operation]]: nothing to evaluate"));
 
   // Installation elements (issue 6): parsed and validated by the siting module.
-<<<<<<< HEAD
   errs.run([&] { st.installation = siting::parse_site_elements(root, file); });
   errs.throw_if_any();
-=======
-  st.installation = siting::parse_site_elements(root, file);
   // ... plus every wire, route and support the antennas and feed lines imply (one geometry for the
   // exposure model and the power-line checks).
   derive_installation(st);
->>>>>>> issue-12
 
   return st;
 }
