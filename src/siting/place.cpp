@@ -398,7 +398,10 @@ double PlaceEngine::Impl::apply_line_checks(Candidate& cand) const {
   double slack = std::numeric_limits<double>::infinity();
   double deficit = -std::numeric_limits<double>::infinity();
   for (const auto& ch : checks) {
-    if (ch.pass() && !ch.line.empty()) {
+    // Checks against no power line (conductor size, radiating-wire height) do not depend on where
+    // the antenna stands on level ground: `standoff lines` and `evaluate` report them; they do not rank.
+    if (ch.line.empty()) continue;
+    if (ch.pass()) {
       if (ch.required && ch.actual) slack = std::min(slack, ch.actual->value() - ch.required->value());
       else slack = -std::numeric_limits<double>::infinity();
     }

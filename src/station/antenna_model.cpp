@@ -129,4 +129,29 @@ em::Model antenna_model(const Antenna& a, double f_hz, const em::Ground& ground,
   throw std::logic_error("wire_model: not a wire antenna");
 }
 
+
+namespace {
+// The key of the quantity a wire-model error is about, from the model's field and message.
+std::string model_error_key(const InputError& e) {
+  const std::string& f = e.where().field;
+  const std::string& m = e.message();
+  auto has = [&](const char* s) { return m.find(s) != std::string::npos; };
+  if (f == "elements") return "elements";
+  if (f == "radials" || f == "radial length" || f.rfind("radial ", 0) == 0) return has("radius") ? "wire_diameter" : "radial_length";
+  if (has("radius") || has("radii") || has("thin-wire")) return "wire_diameter";
+  if (has("ground")) return "height";
+  if (f == "droop") return "apex_angle";
+  if (f == "frequency") return "band_centre";
+  if (f == "length" || f == "segments" || has("segments") || has("zero-length")) return "length";
+  return "kind";
+}
+}  // namespace
+
+std::string antenna_key_for(const Antenna& a, const InputError& e) {
+  std::string key = model_error_key(e);
+  if (a.kind == AntennaKind::yagi && key == "length") key = "band_centre";  // a Yagi is sized from it
+  return key;
+}
+
+
 }  // namespace standoff::station

@@ -5,6 +5,7 @@
 #include <string>
 #include <vector>
 
+#include "core/error.hpp"
 #include "em/model.hpp"
 #include "station/station.hpp"
 
@@ -18,5 +19,9 @@ em::Model antenna_model(const Antenna& a, double f_hz, const em::Ground& ground,
 // its design frequency, or 7 MHz (the wire geometry of every builder but the Yagi's is the same at
 // any frequency; the Yagi's comes from its band_centre).
 double geometry_frequency_hz(const Station& st, const Antenna& a);
+
+// The station key behind a wire-model error (issue 14): the model names its own fields (a wire,
+// "length", "segments"); the user wrote antenna keys, so a message names the key that sets it.
+std::string antenna_key_for(const Antenna& a, const InputError& e);
 
 }  // namespace standoff::station

@@ -138,7 +138,7 @@ void derive_installation(Station& st) {
         m = antenna_model(a, geometry_frequency_hz(st, a), em::perfect_ground(), ignored);
       } catch (const InputError& e) {
         // Never skip an antenna's clearance checks: a wire geometry that cannot be built is an error.
-        throw InputError(Where{st.file, a.line, "antenna[" + std::to_string(ai) + "].kind"},
+        throw InputError(Where{st.file, a.line, "antenna[" + std::to_string(ai) + "]." + antenna_key_for(a, e)},
                          "the antenna's wires cannot be built for the power-line checks: " + e.message());
       }
       for (std::size_t i = 0; i < m.wires.size(); ++i) mine.push_back(wire_span(a, m.wires[i], i, rigid_wire(a, m.wires[i])));

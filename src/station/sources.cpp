@@ -101,21 +101,6 @@ double max_extent(const em::Model& m) {
   return d;
 }
 
-// The station key behind a wire-model error: the model names its own fields (a wire, "length",
-// "segments"); the user wrote antenna keys, so the message names the key that sets that quantity.
-std::string antenna_key_for(const InputError& e) {
-  const std::string& f = e.where().field;
-  const std::string& m = e.message();
-  auto has = [&](const char* s) { return m.find(s) != std::string::npos; };
-  if (f == "elements") return "elements";
-  if (f == "radials" || f == "radial length" || f.rfind("radial ", 0) == 0) return has("radius") ? "wire_diameter" : "radial_length";
-  if (has("radius") || has("radii") || has("thin-wire")) return "wire_diameter";
-  if (has("ground")) return "height";
-  if (f == "droop") return "apex_angle";
-  if (f == "frequency") return "band_centre";
-  if (f == "length" || f == "segments" || has("segments") || has("zero-length")) return "length";
-  return "kind";
-}
 
 // The impedance the feed line sees: the antenna's, through an end-fed antenna's n:1 matching unit
 // (an ideal transformer: Z/n). An end-fed wire without a stated ratio is taken with the usual
@@ -348,8 +333,7 @@ Built build(const Station& st, const BuildOptions& options) {
           for (const auto& w : sol->warnings) s.notes.push_back("antenna model: " + w);
           s.solution = std::move(sol);
         } catch (const InputError& e) {
-          std::string key = antenna_key_for(e);
-          if (ant.kind == AntennaKind::yagi && key == "length") key = "band_centre";  // a Yagi is sized from it
+          const std::string key = antenna_key_for(ant, e);
           const Where wk = where_in(st, "antenna", index_of(st.antennas, &ant), ant.line, key);
           throw InputError(wk, "the antenna cannot be modelled at " + num(f_hz / 1e6) + " MHz: " + e.what());
         }

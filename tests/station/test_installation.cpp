@@ -256,7 +256,8 @@ TEST_CASE("second example: the folded dipole on 300 ohm line evaluates; moved ov
 
 TEST_CASE("installation: the conductor-size row shows millimetre diameters, not 0.0 m", "[cli]") {
   // 14 AWG is 1.628 mm (ASTM B258); the row used to go through the metre formatter ("0.0 m").
-  const auto r = run_cli({"evaluate", STANDOFF_TEST_DATA_DIR "/siting/clear-site.toml", "--threads", "2"});
+  // --verbose: the terminal summary folds passed checks into a count per rule (issue 13).
+  const auto r = run_cli({"evaluate", STANDOFF_TEST_DATA_DIR "/siting/clear-site.toml", "--threads", "2", "--verbose"});
   INFO(r.err);
   REQUIRE((r.code == 0 || r.code == 1));
   std::istringstream lines(r.out);
