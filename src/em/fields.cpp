@@ -9,6 +9,7 @@
 
 #include "em/kernel.hpp"
 #include "em/mesh.hpp"
+#include "em/near_field.hpp"
 #include "em/pattern.hpp"
 
 namespace standoff::em {
@@ -149,63 +150,7 @@ double radiated_power(const Solution& solution) {
 
 std::vector<FieldPoint> near_fields(const Solution& solution, std::span<const Eigen::Vector3d> points,
                                     double input_power_w) {
-  const Radiator r = make_radiator(solution);
-  const double scale = solution.input_power_w > 0.0 ? std::sqrt(input_power_w / (2.0 * solution.input_power_w)) : 0.0;
-  const double nan = std::numeric_limits<double>::quiet_NaN();
-  const cd cnan(nan, nan);
-  std::vector<FieldPoint> out(points.size());
-  for (std::size_t i = 0; i < points.size(); ++i) {
-    const Eigen::Vector3d& p = points[i];
-    FieldPoint& fp = out[i];
-    bool valid = p.allFinite() && !(r.ground != GroundKind::free_space && p.z() < 0.0);
-    for (const auto* v : {&r.direct, &r.image}) {
-      if (!valid) break;
-      for (const Source& s : *v) {
-        const double sc = std::clamp((p - s.line.p0).dot(s.line.t), 0.0, s.line.length);
-        if ((p - (s.line.p0 + sc * s.line.t)).norm() < 3.0 * s.radius) {
-          valid = false;
-          break;
-        }
-      }
-    }
-    if (!valid) {
-      fp.e_v_per_m = Eigen::Vector3cd::Constant(cnan);
-      fp.h_a_per_m = Eigen::Vector3cd::Constant(cnan);
-      fp.valid = false;
-      continue;
-    }
-    Eigen::Vector3cd e = Eigen::Vector3cd::Zero(), h = Eigen::Vector3cd::Zero();
-    Eigen::Vector3cd es, hs;
-    for (const Source& s : r.direct) {
-      kernel::segment_field(p, s.line, s.ia, s.ib, r.k, r.omega, es, hs);
-      e += es;
-      h += hs;
-    }
-    for (const Source& s : r.image) {
-      kernel::segment_field(p, s.line, s.ia, s.ib, r.k, r.omega, es, hs);
-      if (r.ground == GroundKind::real) {
-        // Reflection-coefficient approximation (MOM-NOTES §4): split the image field at the plane
-        // of incidence through the image segment's centre and the point; E: TE part × (−R_h),
-        // TM part × R_v; H: the component normal to the plane belongs to TM.
-        const Eigen::Vector3d d = p - s.line.centre();
-        const auto [rv, rh] = kernel::reflection(r.eps_c, d.z() / d.norm());
-        Eigen::Vector3d phi = Eigen::Vector3d::UnitZ().cross(Eigen::Vector3d(d.x(), d.y(), 0.0));
-        if (phi.norm() < 1e-12 * d.norm()) phi = Eigen::Vector3d::UnitZ().cross(s.line.t);
-        if (phi.norm() < 1e-12) phi = Eigen::Vector3d::UnitX();
-        phi.normalize();
-        const Eigen::Vector3cd pc = phi.cast<cd>();
-        const Eigen::Vector3cd e_te = pc.dot(es) * pc, h_tm = pc.dot(hs) * pc;
-        es = -rh * e_te + rv * (es - e_te);
-        hs = rv * h_tm - rh * (hs - h_tm);
-      }
-      e += es;
-      h += hs;
-    }
-    fp.e_v_per_m = scale * e;
-    fp.h_a_per_m = scale * h;
-    fp.valid = true;
-  }
-  return out;
+  return NearFieldEvaluator(solution).evaluate(points, input_power_w);
 }
 
 double gain(const Solution& solution, const Direction& d) {
