@@ -9,6 +9,7 @@
 #include <limits>
 
 #include "core/constants.hpp"
+#include "em/fast_math.hpp"
 #include "em/kernel.hpp"
 #include "em/mesh.hpp"
 #include "em/pattern.hpp"
@@ -20,47 +21,7 @@ using cd = std::complex<double>;
 constexpr double kInv4Pi = 1.0 / (4.0 * constants::pi);
 // The switch distances of kernel::segment_field (in segment lengths): beyond kFar the 2-point rule.
 constexpr double kFar = 10.0;
-
-// sin and cos of x ≥ 0 without a library call, so that the loop vectorises: x = n·π/2 + r with
-// |r| ≤ π/4 (three-part Cody–Waite reduction, exact for n < 2^27), Taylor series of sin to r^15
-// and cos to r^16 (truncation below 5e-17 for |r| ≤ π/4), quadrant by selects. Accurate to a few
-// ulp for kR up to ~1e7 (checked against std::sin/std::cos in tests/em/test_near_field.cpp).
-inline void sincos_fast(double x, double& s, double& c) {
-  constexpr double two_over_pi = 0.63661977236758134308;
-  constexpr double magic = 6755399441055744.0;  // 1.5·2^52: adding it rounds to an integer
-  // π/2 split so that n·p1 and n·p2 are exact for n < 2^27 (Cody & Waite 1980).
-  constexpr double p1 = 1.5707963109016418457031250;
-  constexpr double p2 = 1.5893254712295857827e-08;
-  constexpr double p3 = 6.1232339957367574e-17;
-  const double n = (x * two_over_pi + magic) - magic;
-  const double r = ((x - n * p1) - n * p2) - n * p3;
-  const double z = r * r;
-  // Horner with 1/k! coefficients.
-  const double sp =
-      r * (1.0 +
-           z * (-1.0 / 6.0 +
-                z * (1.0 / 120.0 +
-                     z * (-1.0 / 5040.0 +
-                          z * (1.0 / 362880.0 +
-                               z * (-1.0 / 39916800.0 + z * (1.0 / 6227020800.0 + z * (-1.0 / 1307674368000.0))))))));
-  const double cp =
-      1.0 +
-      z * (-0.5 +
-           z * (1.0 / 24.0 +
-                z * (-1.0 / 720.0 +
-                     z * (1.0 / 40320.0 +
-                          z * (-1.0 / 3628800.0 +
-                               z * (1.0 / 479001600.0 + z * (-1.0 / 87178291200.0 + z * (1.0 / 20922789888000.0))))))));
-  // Quadrant q = n mod 4 in floating point (no branches, so that the loop vectorises):
-  // floor(n/4) = round(n/4 − 3/8) and floor(q/2) = round(q/2 − 1/4) for integers n, q ≥ 0.
-  const double q = n - 4.0 * ((n * 0.25 - 0.375 + magic) - magic);
-  const double hi = (q * 0.5 - 0.25 + magic) - magic;    // 1 for q = 2, 3
-  const double odd = q - 2.0 * hi;                        // 1 for q = 1, 3
-  const double cneg = odd + hi - 2.0 * odd * hi;          // 1 for q = 1, 2
-  const double s0 = odd * cp + (1.0 - odd) * sp, c0 = odd * sp + (1.0 - odd) * cp;
-  s = (1.0 - 2.0 * hi) * s0;
-  c = (1.0 - 2.0 * cneg) * c0;
-}
+constexpr double kMid = 3.0;  // between kMid and kFar the 4-point rule, closer the graded rule
 
 }  // namespace
 
@@ -74,7 +35,7 @@ NearFieldEvaluator::NearFieldEvaluator(const Solution& sol) {
   if (ground_ == 2) eps_c_ = detail::ground_eps_c(sol.model);
   const auto sc = segment_currents(sol);
   n_direct_ = sc.size();
-  const kernel::Rule rule = kernel::gauss_legendre(2);
+  const kernel::Rule rule2 = kernel::gauss_legendre(2), rule4 = kernel::gauss_legendre(4);
   auto add = [&](const Eigen::Vector3d& p0, const Eigen::Vector3d& t, double len, double radius, cd ia, cd ib) {
     x0_.push_back(p0.x());
     y0_.push_back(p0.y());
@@ -91,8 +52,10 @@ NearFieldEvaluator::NearFieldEvaluator(const Solution& sol) {
     ia_.push_back(ia);
     ib_.push_back(ib);
     const cd charge = -(ib - ia) / (cd(0.0, omega_) * len);  // line charge density, C/m
-    for (int q = 0; q < 2; ++q) {
-      const double u = rule.x[static_cast<std::size_t>(q)], w = rule.w[static_cast<std::size_t>(q)] * len;
+    for (int q = 0; q < kNodeSets; ++q) {
+      const kernel::Rule& rule = q < 2 ? rule2 : rule4;
+      const auto i = static_cast<std::size_t>(q < 2 ? q : q - 2);
+      const double u = rule.x[i], w = rule.w[i] * len;
       const Eigen::Vector3d n = p0 + (u * len) * t;
       nx_[q].push_back(n.x());
       ny_[q].push_back(n.y());
@@ -160,7 +123,7 @@ void NearFieldEvaluator::point_field(const Eigen::Vector3d& p, double scale, Fie
   double* hyi = hyr + n;
   double* hzr = hyi + n;
   double* hzi = hzr + n;
-  double* cls = hzi + n;  // 0: far rule applied here; 1: needs the scalar rule; 2: too close (invalid)
+  double* cls = hzi + n;  // 0: 2-point rule, 1: 4-point rule, 2: graded rule, 3: too close (invalid)
   const double px = p.x(), py = p.y(), pz = p.z();
   const double k = k_, wmu = omega_ * constants::mu0;
 
@@ -173,20 +136,26 @@ void NearFieldEvaluator::point_field(const Eigen::Vector3d& p, double scale, Fie
   const double* tz = tz_.data();
   const double* len = len_.data();
   const double* rad3 = rad3_.data();
-#pragma omp simd
+  double n_mid = 0.0;
+#pragma omp simd reduction(+ : n_mid)
   for (std::size_t j = 0; j < n; ++j) {
     const double dx = px - x0[j], dy = py - y0[j], dz = pz - z0[j];
     const double proj = dx * tx[j] + dy * ty[j] + dz * tz[j];
     const double along = proj < 0.0 ? 0.0 : proj > len[j] ? len[j] : proj;
     const double qx = dx - along * tx[j], qy = dy - along * ty[j], qz = dz - along * tz[j];
     const double d2 = qx * qx + qy * qy + qz * qz;
-    const double l10 = kFar * len[j];
-    const double too_close = d2 < rad3[j] * rad3[j] ? 2.0 : 0.0;
-    const double not_far = d2 > l10 * l10 ? 0.0 : 1.0;
-    cls[j] = too_close > not_far ? too_close : not_far;
+    const double l10 = kFar * len[j], l3 = kMid * len[j];
+    const double too_close = d2 < rad3[j] * rad3[j] ? 3.0 : 0.0;
+    const double near = d2 > l3 * l3 ? 0.0 : 2.0;
+    const double mid = d2 > l10 * l10 ? 0.0 : 1.0;
+    const double c = too_close > near ? too_close : near;
+    cls[j] = c > mid ? c : mid;
+    n_mid += cls[j] == 1.0 ? 1.0 : 0.0;
   }
-  // Pass 2 (vectorised): the 2-point far rule, node by node; zero where another rule applies.
-  for (int q = 0; q < 2; ++q) {
+  // Pass 2 (vectorised): the 2-point and (where any segment needs it) 4-point rules, node by node;
+  // zero where another rule applies.
+  for (int q = 0; q < kNodeSets; ++q) {
+    if (q >= 2 && n_mid == 0.0) break;
     const double* nx = nx_[q].data();
     const double* ny = ny_[q].data();
     const double* nz = nz_[q].data();
@@ -195,6 +164,7 @@ void NearFieldEvaluator::point_field(const Eigen::Vector3d& p, double scale, Fie
     const double* bre = bre_[q].data();
     const double* bim = bim_[q].data();
     const double keep = q == 0 ? 0.0 : 1.0;  // the first node overwrites (scratch values are finite)
+    const double rule_class = q < 2 ? 0.0 : 1.0;
 #pragma omp simd
     for (std::size_t j = 0; j < n; ++j) {
       const double rx = px - nx[j], ry = py - ny[j], rz = pz - nz[j];
@@ -202,7 +172,7 @@ void NearFieldEvaluator::point_field(const Eigen::Vector3d& p, double scale, Fie
       const double inv = 1.0 / r;
       const double kr = k * r;
       double sn, cs;
-      sincos_fast(kr, sn, cs);
+      fast_math::sincos(kr, sn, cs);
       // G = (cs − j sn)/(4πr); (dG/dr)/r = −(1 + jkr)(cs − j sn)/(4πr³).
       const double gi4 = inv * kInv4Pi;
       const double gre = cs * gi4, gim = -sn * gi4;
@@ -215,8 +185,8 @@ void NearFieldEvaluator::point_field(const Eigen::Vector3d& p, double scale, Fie
       const double bgr = br * grr - bi * gri, bgi = br * gri + bi * grr;
       const double agr = ar * grr - ai * gri, agi = ar * gri + ai * grr;
       const double cxv = ry * tz[j] - rz * ty[j], cyv = rz * tx[j] - rx * tz[j], czv = rx * ty[j] - ry * tx[j];
-      // Selected (not multiplied: 0·∞ would be NaN) and summed over the two nodes.
-      const bool far = cls[j] == 0.0;
+      // Selected (not multiplied: 0·∞ would be NaN) and summed over the rule's nodes.
+      const bool far = cls[j] == rule_class;
       const double v_exr = etr * tx[j] - bgr * rx;
       const double v_exi = eti * tx[j] - bgi * rx;
       const double v_eyr = etr * ty[j] - bgr * ry;
@@ -244,10 +214,10 @@ void NearFieldEvaluator::point_field(const Eigen::Vector3d& p, double scale, Fie
     }
   }
 
-  // Pass 3 (scalar, few segments): the 4-point and graded rules of kernel::segment_field.
+  // Pass 3 (scalar, few segments): the graded rule of kernel::segment_field.
   for (std::size_t j = 0; j < n; ++j) {
-    if (cls[j] == 0.0) continue;
-    if (cls[j] == 2.0) return invalid();
+    if (cls[j] < 2.0) continue;
+    if (cls[j] == 3.0) return invalid();
     const kernel::Line line{Eigen::Vector3d(x0_[j], y0_[j], z0_[j]), Eigen::Vector3d(tx_[j], ty_[j], tz_[j]), len_[j]};
     Eigen::Vector3cd es, hs;
     kernel::segment_field(p, line, ia_[j], ib_[j], k_, omega_, es, hs);

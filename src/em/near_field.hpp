@@ -37,8 +37,11 @@ class NearFieldEvaluator {
   // Per segment (direct first, then images): start, direction, length, 3 radii, centre, currents.
   std::vector<double> x0_, y0_, z0_, tx_, ty_, tz_, len_, rad3_, cx_, cy_, cz_;
   std::vector<std::complex<double>> ia_, ib_;
-  // 2-point rule nodes and their weighted terms: A = w·Δ·I(s), B = w·Δ·q/ε0 (q line charge).
-  std::vector<double> nx_[2], ny_[2], nz_[2], are_[2], aim_[2], bre_[2], bim_[2];
+  // Rule nodes (sets 0–1: the 2-point rule, 2–5: the 4-point rule) and their weighted terms:
+  // A = w·Δ·I(s), B = w·Δ·q/ε0 (q line charge).
+  static constexpr int kNodeSets = 6;
+  std::vector<double> nx_[kNodeSets], ny_[kNodeSets], nz_[kNodeSets], are_[kNodeSets], aim_[kNodeSets],
+      bre_[kNodeSets], bim_[kNodeSets];
   std::size_t n_direct_ = 0;
   int ground_ = 0;  // 0 free space, 1 perfect, 2 real (reflection-coefficient approximation)
   std::complex<double> eps_c_{1.0, 0.0};
