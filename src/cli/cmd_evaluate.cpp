@@ -13,6 +13,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/command.hpp"
+#include "core/parallel.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
 #include "limits/limits_toml.hpp"
@@ -144,6 +145,7 @@ std::function<void(double)> progress_for(std::ostream& err, bool json) {
 
 int run_evaluation(const EvalOptions& o, std::string_view text, const std::string& input_name,
                    const std::string& file_for_messages, std::ostream& out, std::ostream& err) {
+  parallel::set_default_threads(o.threads);  // also the MoM set-up (0: all cores)
   const station::Station st = station::load_station(text, file_for_messages);
   station::BuildOptions bo;
   bo.standard = standard_option(o.standard);
@@ -208,6 +210,7 @@ struct FieldOptions {
   std::string operation;
   std::string standard;
   bool json = false;
+  unsigned threads = 0;
 };
 
 exposure::SitePoint parse_at(const std::string& text) {
@@ -231,6 +234,7 @@ exposure::SitePoint parse_at(const std::string& text) {
 }
 
 int run_field(const FieldOptions& o, std::ostream& out) {
+  parallel::set_default_threads(o.threads);
   const exposure::SitePoint at = parse_at(o.at);
   const std::string text = read_file(o.station_file);
   const station::Station st = station::load_station(text, o.station_file);
@@ -328,6 +332,8 @@ void add_evaluate(CLI::App& root, Commands& commands) {
     sub->add_option("--operation", o->operation, "Only this operation (default: every operation)");
     sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6");
     sub->add_flag("--json", o->json, "Print JSON");
+    sub->add_option("--threads", o->threads, "Worker threads for the antenna models (default: all cores)")
+        ->check(CLI::Range(1u, 256u));
     commands.push_back({sub, [o](std::ostream& out, std::ostream&) { return run_field(*o, out); }});
   }
 }

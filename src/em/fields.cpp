@@ -7,6 +7,7 @@
 #include <cmath>
 #include <limits>
 
+#include "core/parallel.hpp"
 #include "em/fast_math.hpp"
 #include "em/kernel.hpp"
 #include "em/mesh.hpp"
@@ -162,19 +163,27 @@ double radiated_power(const Solution& solution) {
   const int panels = (n_theta + 7) / 8;
   const kernel::Rule g = kernel::gauss_legendre(8);
   const double mu_lo = half ? 0.0 : -1.0, mu_hi = 1.0;
+  // Rings in parallel (core/parallel.hpp), summed afterwards in a fixed order.
+  const std::size_t nodes = g.x.size();
+  std::vector<double> rings(static_cast<std::size_t>(panels) * nodes);
+  parallel::for_each_index(rings.size(), 1, [&](std::size_t idx) {
+    const int pnl = static_cast<int>(idx / nodes);
+    const std::size_t i = idx % nodes;
+    const double a = mu_lo + (mu_hi - mu_lo) * pnl / panels, b = mu_lo + (mu_hi - mu_lo) * (pnl + 1) / panels;
+    const double mu = a + (b - a) * g.x[i];
+    const double st = std::sqrt(std::max(0.0, 1.0 - mu * mu));
+    double ring = 0.0;
+    for (int j = 0; j < n_phi; ++j) {
+      const double ph = 2.0 * pi * (j + 0.5) / n_phi;
+      ring += far_e(r, Eigen::Vector3d(st * std::cos(ph), st * std::sin(ph), mu)).squaredNorm();
+    }
+    rings[idx] = ring;
+  });
   double sum = 0.0;
   for (int pnl = 0; pnl < panels; ++pnl) {
     const double a = mu_lo + (mu_hi - mu_lo) * pnl / panels, b = mu_lo + (mu_hi - mu_lo) * (pnl + 1) / panels;
-    for (std::size_t i = 0; i < g.x.size(); ++i) {
-      const double mu = a + (b - a) * g.x[i];
-      const double st = std::sqrt(std::max(0.0, 1.0 - mu * mu));
-      double ring = 0.0;
-      for (int j = 0; j < n_phi; ++j) {
-        const double ph = 2.0 * pi * (j + 0.5) / n_phi;
-        ring += far_e(r, Eigen::Vector3d(st * std::cos(ph), st * std::sin(ph), mu)).squaredNorm();
-      }
-      sum += g.w[i] * (b - a) * ring * (2.0 * pi / n_phi);
-    }
+    for (std::size_t i = 0; i < nodes; ++i)
+      sum += g.w[i] * (b - a) * rings[static_cast<std::size_t>(pnl) * nodes + i] * (2.0 * pi / n_phi);
   }
   return sum / (2.0 * constants::eta0);
 }
@@ -200,12 +209,21 @@ PatternPeak peak_gain(const Solution& solution, double step_rad) {
   const double el_lo = half ? 0.0 : -pi / 2;
   const int n_el = static_cast<int>(std::ceil((pi / 2 - el_lo) / step_rad));
   const int n_az = static_cast<int>(std::ceil(2 * pi / step_rad));
-  for (int i = 0; i <= n_el; ++i)
+  // Rows of the grid in parallel (core/parallel.hpp); the first maximum in row order wins, as in
+  // a serial scan, whatever the thread count.
+  std::vector<PatternPeak> rows(static_cast<std::size_t>(n_el) + 1);
+  parallel::for_each_index(rows.size(), 1, [&](std::size_t i) {
+    PatternPeak row;
+    row.gain = -1.0;
     for (int j = 0; j < n_az; ++j) {
-      const Direction d{el_lo + (pi / 2 - el_lo) * i / n_el, 2 * pi * j / n_az};
+      const Direction d{el_lo + (pi / 2 - el_lo) * static_cast<int>(i) / n_el, 2 * pi * j / n_az};
       const double gv = gain_of(r, solution, direction(d));
-      if (gv > best.gain) best = {gv, 0.0, d};
+      if (gv > row.gain) row = {gv, 0.0, d};
     }
+    rows[i] = row;
+  });
+  for (const PatternPeak& row : rows)
+    if (row.gain > best.gain) best = row;
   // Local refinement by pattern search with halving steps.
   double st = step_rad;
   while (st > 1e-4) {

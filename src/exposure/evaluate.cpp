@@ -11,6 +11,7 @@
 #include <thread>
 
 #include "core/constants.hpp"
+#include "core/parallel.hpp"
 
 namespace standoff::exposure {
 
@@ -19,48 +20,24 @@ namespace {
 constexpr std::size_t kMaxNotEvaluatedListed = 20;
 constexpr int kRays = 36;  // directions for the detailed compliance distance (every 10°)
 
-unsigned thread_count(unsigned requested) {
-  if (requested > 0) return requested;
-  const unsigned hw = std::thread::hardware_concurrency();
-  return hw == 0 ? 1u : hw;
-}
+unsigned thread_count(unsigned requested) { return parallel::thread_count(requested); }
 
-// Fields at all points, the points split into contiguous blocks, one block per thread. Each point
-// is computed independently, so the result does not depend on the thread count.
+// Fields at all points, in chunks handed to the threads (core/parallel.hpp). Each point is
+// computed independently and stored by index, so the result does not depend on the thread count.
 std::vector<em::FieldPoint> compute_fields(const FieldFunction& field, const std::vector<Eigen::Vector3d>& pts,
                                            unsigned threads) {
   std::vector<em::FieldPoint> out(pts.size());
   if (pts.empty()) return out;
-  constexpr std::size_t kMinBlock = 64;
-  const std::size_t blocks = std::max<std::size_t>(1, std::min<std::size_t>(threads, pts.size() / kMinBlock));
+  constexpr std::size_t kChunk = 200;  // 40 body lines: small enough to balance, large enough to amortise
   const std::span<const Eigen::Vector3d> all(pts);
-  auto run_block = [&](std::size_t b) {
-    const std::size_t chunk = (pts.size() + blocks - 1) / blocks;
-    const std::size_t begin = b * chunk;
-    const std::size_t end = std::min(pts.size(), begin + chunk);
-    if (begin >= end) return;
-    auto r = field(all.subspan(begin, end - begin));
-    if (r.size() != end - begin) throw std::logic_error("field function returned the wrong number of points");
-    std::copy(r.begin(), r.end(), out.begin() + static_cast<std::ptrdiff_t>(begin));
-  };
-  if (blocks == 1) {
-    run_block(0);
-    return out;
-  }
-  std::vector<std::exception_ptr> errors(blocks);
-  std::vector<std::thread> pool;
-  pool.reserve(blocks);
-  for (std::size_t b = 0; b < blocks; ++b)
-    pool.emplace_back([&, b] {
-      try {
-        run_block(b);
-      } catch (...) {
-        errors[b] = std::current_exception();
-      }
-    });
-  for (auto& t : pool) t.join();
-  for (auto& e : errors)
-    if (e) std::rethrow_exception(e);
+  parallel::for_chunks(
+      pts.size(), kChunk,
+      [&](std::size_t begin, std::size_t end) {
+        auto r = field(all.subspan(begin, end - begin));
+        if (r.size() != end - begin) throw std::logic_error("field function returned the wrong number of points");
+        std::copy(r.begin(), r.end(), out.begin() + static_cast<std::ptrdiff_t>(begin));
+      },
+      threads);
   return out;
 }
 
