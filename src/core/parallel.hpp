@@ -24,8 +24,8 @@ unsigned default_threads();
 unsigned thread_count(unsigned requested = 0);
 
 // Calls body(begin, end) on disjoint chunks covering [0, n), chunk size `chunk` (the last one may
-// be shorter), on up to `threads` threads (0: thread_count()). Runs inline when one thread or one
-// chunk suffices. The first exception thrown by any chunk is rethrown after all threads joined.
+// be shorter), on up to `threads` threads (0: thread_count()). With one worker (one thread or one
+// chunk) it calls body(0, n) once, inline. The first exception thrown by any chunk is rethrown after all threads joined.
 template <class Body>
 void for_chunks(std::size_t n, std::size_t chunk, Body&& body, unsigned threads = 0) {
   if (n == 0) return;
