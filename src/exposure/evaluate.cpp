@@ -273,9 +273,16 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
   // Per cell: computed?, valid?, ratio per tier (max over its body lines), the zone-tier worst.
   std::vector<char> computed(ncell, 0), valid(ncell, 0);
   std::vector<double> rc(ncell, 0.0), ru(ncell, 0.0);
-  std::vector<PlaceExposure> best(ncell);
+  // The grid's worst computed place so far: the first cell in index order with the largest ratio of
+  // the zone's tier (per-cell bests are kept only for the batch being computed, so memory does not
+  // grow with the zone's area).
+  bool have_best = false;
+  std::size_t best_cell = 0;
+  PlaceExposure grid_best;
 
-  auto compute = [&](const std::vector<std::size_t>& cells) {
+  // Cells are computed in batches so that the points and fields held at once stay bounded.
+  constexpr std::size_t kBatchCells = 8192;
+  auto compute_batch = [&](std::span<const std::size_t> cells) {
     std::vector<Eigen::Vector3d> pts;
     std::vector<std::size_t> owner;
     for (std::size_t c : cells) {
@@ -295,7 +302,7 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       computed[c] = 1;
       valid[c] = 1;
     }
-    std::vector<char> seen(ncell, 0);
+    std::map<std::size_t, PlaceExposure> best;  // this batch's cells
     for (std::size_t b = 0; b < owner.size(); ++b) {
       const std::size_t c = owner[b];
       const BodyResult r = reduce_body(&f[b * kBodySamples], lim);
@@ -312,13 +319,25 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       }
       rc[c] = std::max(rc[c], r.avg[0].value);
       ru[c] = std::max(ru[c], r.avg[1].value);
-      if (!seen[c] || r.avg[ti].value > best[c].ratio) {
-        seen[c] = 1;
+      auto it = best.find(c);
+      if (it == best.end() || r.avg[ti].value > it->second.ratio) {
         const auto& p = pts[b * kBodySamples + static_cast<std::size_t>(r.peak_sample[ti])];
         best[c] = PlaceExposure{SitePoint{p.x(), p.y(), p.z()}, zg.zone, zg.tier, r.avg[ti].value, r.peak[ti],
                                 r.avg[ti].quantity, r.e_at_peak[ti], r.h_at_peak[ti]};
       }
     }
+    for (const auto& [c, pe] : best) {
+      if (zg.state[c] == CellState::outside || !valid[c]) continue;
+      if (!have_best || pe.ratio > grid_best.ratio || (pe.ratio == grid_best.ratio && c < best_cell)) {
+        have_best = true;
+        best_cell = c;
+        grid_best = pe;
+      }
+    }
+  };
+  auto compute = [&](const std::vector<std::size_t>& cells) {
+    for (std::size_t b = 0; b < cells.size(); b += kBatchCells)
+      compute_batch(std::span<const std::size_t>(cells).subspan(b, std::min(kBatchCells, cells.size() - b)));
   };
 
   const bool coarse_first = opt.coarse_first && src.frequency_hz <= kCoarseMaxFrequency_hz && s < 1.0;
@@ -417,7 +436,6 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       layer.state[c] = CellState::evaluated;
       layer.ratio_controlled[c] = rc[c];
       layer.ratio_uncontrolled[c] = ru[c];
-      consider_worst(op.worst, any, best[c]);
       continue;
     }
     // Estimated from the finest block allowing it: kEstimateFactor × the largest ratio of its corners
@@ -430,6 +448,7 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       layer.ratio_uncontrolled[c] = std::max(layer.ratio_uncontrolled[c], kEstimateFactor * ru[n]);
     }
   }
+  if (have_best) consider_worst(op.worst, any, grid_best);
   g.grid.layers.push_back(std::move(layer));
 }
 

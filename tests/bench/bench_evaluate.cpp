@@ -6,8 +6,13 @@
 // Peak memory: /usr/bin/time -v bench_evaluate (maximum resident set size).
 #include <benchmark/benchmark.h>
 
+#include <memory>
+
 #include "core/parallel.hpp"
+#include "em/builders.hpp"
+#include "em/near_field.hpp"
 #include "exposure/evaluate.hpp"
+#include "limits/limits_toml.hpp"
 #include "station/sources.hpp"
 #include "station/station_toml.hpp"
 
@@ -49,6 +54,46 @@ void BM_DemoBuild(benchmark::State& state) {
   standoff::parallel::set_default_threads(0);
 }
 BENCHMARK(BM_DemoBuild)->ArgName("threads")->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->UseRealTime();
+
+// A large zone (issue 14: "a realistic 1 km² zone in seconds and under 500 MB"): a 14.2 MHz dipole at
+// 10 m over average ground, 400 W, in the middle of a square zone of side range(0) m, 0.5 m grid,
+// 2 threads. Peak memory: /usr/bin/time -v bench_evaluate --benchmark_filter=LargeZone/1000.
+void BM_LargeZone(benchmark::State& state) {
+  namespace ex = standoff::exposure;
+  namespace lim = standoff::limits;
+  const double side = static_cast<double>(state.range(0)), f = 14.2e6, p = 400.0;
+  standoff::em::Placement at{0.0, 0.0, 10.0, standoff::constants::pi / 2};
+  const auto sol = standoff::em::solve(standoff::em::dipole(f, 10.1, at, standoff::em::Conductor{1e-3},
+                                                            standoff::em::real_ground(15.0, 0.005, "average")));
+  auto nf = std::make_shared<const standoff::em::NearFieldEvaluator>(sol);
+  ex::EvaluationInput in;
+  ex::SourceInput src;
+  src.name = "dipole";
+  src.frequency_hz = f;
+  src.pep_w = src.average_power_w = p;
+  src.method = "detailed (MoM)";
+  for (const auto& w : sol.model.wires) src.footprint.push_back({{w.a.x(), w.a.y()}, {w.b.x(), w.b.y()}});
+  src.field = [nf, p](std::span<const Eigen::Vector3d> pts) { return nf->evaluate(pts, p); };
+  in.sources = {src};
+  const auto& t = lim::builtin_limit_table_ref(lim::Standard::fcc);
+  ex::SourceLimits l;
+  l.controlled = lim::lookup(t, lim::Tier::controlled, standoff::units::hertz(f));
+  l.uncontrolled = lim::lookup(t, lim::Tier::uncontrolled, standoff::units::hertz(f));
+  in.limits = {l};
+  ex::ZoneInput z;
+  z.name = "zone";
+  z.tier = lim::Tier::uncontrolled;
+  z.polygon = {{-side / 2, -side / 2}, {side / 2, -side / 2}, {side / 2, side / 2}, {-side / 2, side / 2}};
+  in.zones = {z};
+  ex::EvaluationOptions o;
+  o.threads = 2;
+  for (auto _ : state) {
+    auto ev = ex::evaluate(in, o);
+    benchmark::DoNotOptimize(ev);
+  }
+  state.counters["cells"] = side * side / 0.25;
+}
+BENCHMARK(BM_LargeZone)->ArgName("side_m")->Arg(100)->Arg(300)->Arg(1000)->Unit(benchmark::kMillisecond)->UseRealTime()->Iterations(1);
 
 }  // namespace
 
