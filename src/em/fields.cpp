@@ -84,8 +84,8 @@ Radiator make_radiator(const Solution& sol) {
 }
 
 // N = Σ t̂ ∫ I(s) e^{jk r̂·r'} ds over the nodes (one vectorised loop; compiled twice on x86-64
-// with GCC, AVX2/FMA and the baseline, chosen at load time).
-#if defined(__x86_64__) && defined(__GNUC__) && !defined(__clang__)
+// with GCC, AVX2/FMA and the baseline, chosen at load time; not under the sanitizers).
+#if defined(__x86_64__) && defined(__GNUC__) && !defined(__clang__) && !defined(__SANITIZE_ADDRESS__)
 __attribute__((target_clones("arch=x86-64-v3", "default")))
 #endif
 Eigen::Vector3cd radiation_vector(const FarNodes& nd, const Eigen::Vector3d& dir, double k) {

@@ -95,8 +95,10 @@ void NearFieldEvaluator::evaluate(std::span<const Eigen::Vector3d> points, doubl
   for (std::size_t i = 0; i < points.size(); ++i) point_field(points[i], scale, out[i], work);
 }
 
-// Compiled twice on x86-64 with GCC (AVX2/FMA and the baseline), chosen at load time (ifunc).
-#if defined(__x86_64__) && defined(__GNUC__) && !defined(__clang__)
+// Compiled twice on x86-64 with GCC (AVX2/FMA and the baseline), chosen at load time (ifunc);
+// kept out of the sanitizer build as a precaution (ifunc resolvers run before the sanitizer
+// runtime is set up; not tried there).
+#if defined(__x86_64__) && defined(__GNUC__) && !defined(__clang__) && !defined(__SANITIZE_ADDRESS__)
 __attribute__((target_clones("arch=x86-64-v3", "default")))
 #endif
 void NearFieldEvaluator::point_field(const Eigen::Vector3d& p, double scale, FieldPoint& fp,
