@@ -1,5 +1,6 @@
-// Parallel loops over independent items (observation points, matrix rows, directions) on
-// std::thread: dynamic chunks from a shared counter, exceptions rethrown in the caller.
+// Parallel loops over independent items (observation points, matrix rows, directions) on a
+// persistent pool of std::threads: dynamic chunks from a shared counter, exceptions rethrown in
+// the caller.
 #pragma once
 
 // Determinism: each index is computed by the same code whatever thread runs it, and callers
@@ -10,6 +11,7 @@
 #include <atomic>
 #include <cstddef>
 #include <exception>
+#include <functional>
 #include <mutex>
 #include <thread>
 #include <vector>
@@ -23,9 +25,17 @@ unsigned default_threads();
 // `requested` if > 0, else the process default, else std::thread::hardware_concurrency() (≥ 1).
 unsigned thread_count(unsigned requested = 0);
 
+namespace detail {
+// Runs work() on `extra` pool threads and on the calling thread, and returns when all are done.
+// The pool's threads are started on first use and kept for the life of the process. A call made
+// from inside a pool thread, or while another thread is using the pool, gets fresh std::threads.
+void run_on_pool(unsigned extra, const std::function<void()>& work);
+}  // namespace detail
+
 // Calls body(begin, end) on disjoint chunks covering [0, n), chunk size `chunk` (the last one may
 // be shorter), on up to `threads` threads (0: thread_count()). With one worker (one thread or one
-// chunk) it calls body(0, n) once, inline. The first exception thrown by any chunk is rethrown after all threads joined.
+// chunk) it calls body(0, n) once, inline. The first exception thrown by any chunk is rethrown
+// after all threads finished.
 template <class Body>
 void for_chunks(std::size_t n, std::size_t chunk, Body&& body, unsigned threads = 0) {
   if (n == 0) return;
@@ -39,7 +49,7 @@ void for_chunks(std::size_t n, std::size_t chunk, Body&& body, unsigned threads 
   std::atomic<std::size_t> next{0};
   std::exception_ptr error;
   std::mutex error_mutex;
-  auto work = [&] {
+  const std::function<void()> work = [&] {
     for (;;) {
       const std::size_t c = next.fetch_add(1, std::memory_order_relaxed);
       if (c >= chunks) return;
@@ -52,11 +62,7 @@ void for_chunks(std::size_t n, std::size_t chunk, Body&& body, unsigned threads 
       }
     }
   };
-  std::vector<std::thread> pool;
-  pool.reserve(workers - 1);
-  for (std::size_t t = 1; t < workers; ++t) pool.emplace_back(work);
-  work();
-  for (auto& t : pool) t.join();
+  detail::run_on_pool(static_cast<unsigned>(workers - 1), work);
   if (error) std::rethrow_exception(error);
 }
 
