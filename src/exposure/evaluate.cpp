@@ -166,7 +166,8 @@ void detailed_distances(const SourceInput& s, const SourceLimits& lim, unsigned 
   const auto f = compute_fields(s.field, pts, threads);
   const std::size_t nr = radii.size();
   std::vector<BodyResult> body(nr * kRays);
-  for (std::size_t i = 0; i < body.size(); ++i) body[i] = reduce_body(&f[i * kBodySamples], lim);
+  parallel::for_each_index(
+      body.size(), 256, [&](std::size_t i) { body[i] = reduce_body(&f[i * kBodySamples], lim); }, threads);
 
   std::optional<double> dist[2];
   bool beyond[2] = {false, false};
@@ -302,10 +303,14 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       computed[c] = 1;
       valid[c] = 1;
     }
+    // Body lines reduced to ratios on the pool, then merged in body-line order.
+    std::vector<BodyResult> reduced(owner.size());
+    parallel::for_each_index(
+        owner.size(), 256, [&](std::size_t b) { reduced[b] = reduce_body(&f[b * kBodySamples], lim); }, threads);
     std::map<std::size_t, PlaceExposure> best;  // this batch's cells
     for (std::size_t b = 0; b < owner.size(); ++b) {
       const std::size_t c = owner[b];
-      const BodyResult r = reduce_body(&f[b * kBodySamples], lim);
+      const BodyResult& r = reduced[b];
       if (!r.valid) {
         if (valid[c] && zg.state[c] != CellState::outside) {
           const auto& p = pts[b * kBodySamples];
