@@ -136,8 +136,15 @@ void note_not_evaluated(OperationResult& op, SitePoint at, const std::string& zo
   if (op.not_evaluated.size() < kMaxNotEvaluatedListed) op.not_evaluated.push_back({at, zone, reason});
 }
 
+// Ratios within kTieRelative of each other count as equal, so that the place reported for
+// symmetric maxima does not depend on the last bits of the arithmetic (e.g. the AVX2 or the
+// baseline build of the near-field kernel): the first one considered stays.
+constexpr double kTieRelative = 1e-12;
+
+bool clearly_greater(double a, double b) { return a > b + kTieRelative * std::abs(b); }
+
 void consider_worst(PlaceExposure& worst, bool& any, const PlaceExposure& candidate) {
-  if (!any || candidate.ratio > worst.ratio) {
+  if (!any || clearly_greater(candidate.ratio, worst.ratio)) {
     worst = candidate;
     any = true;
   }
@@ -333,7 +340,8 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
     }
     for (const auto& [c, pe] : best) {
       if (zg.state[c] == CellState::outside || !valid[c]) continue;
-      if (!have_best || pe.ratio > grid_best.ratio || (pe.ratio == grid_best.ratio && c < best_cell)) {
+      if (!have_best || clearly_greater(pe.ratio, grid_best.ratio) ||
+          (!clearly_greater(grid_best.ratio, pe.ratio) && c < best_cell)) {
         have_best = true;
         best_cell = c;
         grid_best = pe;
