@@ -369,6 +369,23 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
     const std::size_t st = steps[level];
     return (i % st == 0 || i == nx - 1) && (j % st == 0 || j == ny - 1);
   };
+  // Plan distance from each block's centre to the antenna, per level above 0 (computed once).
+  std::vector<std::vector<double>> block_distance(steps.size());
+  std::vector<std::size_t> blocks_x(steps.size(), 0);
+  for (std::size_t l = 1; l < steps.size(); ++l) {
+    const std::size_t st = steps[l], bx = (nx + st - 1) / st, by = (ny + st - 1) / st;
+    blocks_x[l] = bx;
+    block_distance[l].resize(bx * by);
+    parallel::for_each_index(
+        bx * by, 256,
+        [&, st, bx](std::size_t b) {
+          const std::size_t i0 = (b % bx) * st, j0 = (b / bx) * st;
+          const std::size_t i1 = std::min(i0 + st, nx - 1), j1 = std::min(j0 + st, ny - 1);
+          const PlanPoint a = centre_of(j0 * nx + i0), d = centre_of(j1 * nx + i1);
+          block_distance[l][b] = plan_distance_to_antenna(src, PlanPoint{0.5 * (a.x_m + d.x_m), 0.5 * (a.y_m + d.y_m)});
+        },
+        threads);
+  }
   auto corners = [&](std::size_t level, std::size_t c) {
     const std::size_t st = steps[level], i = c % nx, j = c / nx;
     const std::size_t i0 = i - i % st, j0 = j - j % st;
@@ -383,9 +400,9 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
     for (std::size_t n : k)
       if (!computed[n] || !valid[n] || kEstimateFactor * std::max(rc[n], ru[n]) >= kCoarseThreshold) return false;
     if (level == 0) return true;
-    const PlanPoint a = centre_of(k[0]), d = centre_of(k[3]);
-    const double size_m = static_cast<double>(steps[level]) * s;
-    return plan_distance_to_antenna(src, PlanPoint{0.5 * (a.x_m + d.x_m), 0.5 * (a.y_m + d.y_m)}) >= kNearAntenna_m + size_m;
+    const std::size_t st = steps[level];
+    const double size_m = static_cast<double>(st) * s;
+    return block_distance[level][(c / nx / st) * blocks_x[level] + (c % nx) / st] >= kNearAntenna_m + size_m;
   };
   // The finest level at or above `from` whose block around c allows an estimate (or none).
   auto settled_level = [&](std::size_t from, std::size_t c) -> std::optional<std::size_t> {
@@ -396,15 +413,21 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
 
   // First pass: the nodes of the coarsest level and every cell near the antenna.
   std::vector<std::size_t> pass;
+  std::vector<char> near(coarse_first ? ncell : 0, 0);
+  if (coarse_first)
+    parallel::for_each_index(
+        ncell, 4096,
+        [&](std::size_t c) {
+          near[c] = zg.state[c] != CellState::outside && plan_distance_to_antenna(src, centre_of(c)) <= kNearAntenna_m;
+        },
+        threads);
   for (std::size_t c = 0; c < ncell; ++c) {
     const bool inside_zone = zg.state[c] != CellState::outside;
     if (!coarse_first) {
       if (inside_zone) pass.push_back(c);
       continue;
     }
-    const bool node = is_node(top_level, c % nx, c / nx);
-    const bool near = inside_zone && plan_distance_to_antenna(src, centre_of(c)) <= kNearAntenna_m;
-    if (node || near) pass.push_back(c);
+    if (is_node(top_level, c % nx, c / nx) || near[c]) pass.push_back(c);
   }
   compute(pass);
   if (coarse_first) {
