@@ -21,6 +21,7 @@
 #include "cli/place_command.hpp"
 #include "report/place_report.hpp"
 #include "core/bounds.hpp"
+#include "core/parallel.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
 #include "exposure/remedies.hpp"
@@ -222,6 +223,7 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   // `--out` alone: CLI11 records an empty value (an explicit `--out ""` is refused by run()).
   const bool out_bare = out_given && o.out_dir.empty();
   if (out_given && !out_bare) check_out_dir(o.out_dir);
+  parallel::set_default_threads(o.threads);  // also the MoM set-up (0: all cores)
   const station::Station st = station::load_station(text, file_for_messages);
   if (out_bare) check_out_dir("reports/" + report::slug(st.name));
   station::BuildOptions bo;
@@ -343,6 +345,7 @@ struct FieldOptions {
   std::string standard;
   std::string tables;
   bool json = false;
+  unsigned threads = 0;
 };
 
 exposure::SitePoint parse_at(const std::string& text) {
@@ -367,6 +370,7 @@ exposure::SitePoint parse_at(const std::string& text) {
 }
 
 int run_field(const FieldOptions& o, std::ostream& out) {
+  parallel::set_default_threads(o.threads);
   const exposure::SitePoint at = parse_at(o.at);
   const std::string text = read_file(o.station_file);
   const station::Station st = station::load_station(text, o.station_file);
@@ -471,6 +475,8 @@ void add_evaluate(CLI::App& root, Commands& commands) {
     sub->add_option("--standard", o->standard, "Exposure standard: fcc, icnirp2020, icnirp1998, sc6");
     sub->add_option("--tables", o->tables, "Directory with user tables (feedlines.toml, duty.toml)");
     sub->add_flag("--json", o->json, "Print JSON");
+    sub->add_option("--threads", o->threads, "Worker threads for the antenna models (default: all cores)")
+        ->check(CLI::Range(1u, 256u));
     commands.push_back({sub, [o](std::ostream& out, std::ostream&) { return run_field(*o, out); }});
   }
 }

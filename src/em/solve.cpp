@@ -7,6 +7,7 @@
 #include <Eigen/LU>
 
 #include "core/error.hpp"
+#include "core/parallel.hpp"
 #include "em/kernel.hpp"
 #include "em/mesh.hpp"
 #include "em/pattern.hpp"
@@ -114,45 +115,77 @@ System assemble(const Model& model, const SolveOptions& options) {
       }
   };
 
-  for (std::size_t p = 0; p < ns; ++p) {
+  // Segment-pair integrals of a block of rows p (all q ≥ p, direct and image) in parallel
+  // (core/parallel.hpp), then added to Z in the serial order below, so Z does not depend on the
+  // thread count.
+  struct PairTerms {
+    kernel::PairIntegrals direct, image;
+    cd tt = 0.0, qq = 0.0;  // image factors
+  };
+  constexpr std::size_t kRowBlock = 32;
+  std::vector<std::vector<PairTerms>> block(kRowBlock);
+  auto pair_terms = [&](std::size_t p, std::size_t q) {
+    PairTerms out;
     const Segment& sp = mesh.segments[p];
-    if (pieces[p].empty()) continue;
+    const Segment& sq = mesh.segments[q];
+    const double a2 = sp.radius * sq.radius;
     const kernel::Line lp = line_of(sp);
-    for (std::size_t q = p; q < ns; ++q) {
-      const Segment& sq = mesh.segments[q];
-      if (pieces[q].empty()) continue;
-      const double a2 = sp.radius * sq.radius;
-      const kernel::Line lq = line_of(sq);
-      accumulate(p, q, kernel::pair_integrals(lp, lq, a2, k), sp.t.dot(sq.t), 1.0, p != q);
-      if (ground) {
-        // Image of q: mirrored geometry, current reversed (horizontal components reversed, vertical
-        // kept, charge reversed; MOM-NOTES §4).
-        const kernel::Line iq = mirror(lq);
-        const Eigen::Vector3d u = -iq.t;  // direction of the perfect-image current
-        cd tt = sp.t.dot(u);
-        cd qq = -1.0;
-        if (real) {
-          const Eigen::Vector3d d = lp.centre() - iq.centre();
-          const double cos_t = d.z() / d.norm();
-          const auto [rv, rh] = kernel::reflection(eps_c, cos_t);
-          Eigen::Vector3d rho(d.x(), d.y(), 0.0);
-          Eigen::Vector3d phi = rho.norm() > 1e-12 * d.norm() ? Eigen::Vector3d(Eigen::Vector3d::UnitZ().cross(rho.normalized()))
-                                                              : Eigen::Vector3d(sp.t.cross(Eigen::Vector3d::UnitZ()));
-          if (phi.norm() < 1e-12) phi = Eigen::Vector3d::UnitX();
-          phi.normalize();
-          const Eigen::Vector3d u_te = u.dot(phi) * phi, u_tm = u - u_te;
-          // Reflection-coefficient approximation: TE part weighted by −R_h, TM part by R_v.
-          tt = -rh * sp.t.dot(u_te) + rv * sp.t.dot(u_tm);
-          qq = -rv;
-        }
-        accumulate(p, q, kernel::pair_integrals(lp, iq, a2, k), tt, qq, p != q);
+    const kernel::Line lq = line_of(sq);
+    out.direct = kernel::pair_integrals(lp, lq, a2, k);
+    if (ground) {
+      // Image of q: mirrored geometry, current reversed (horizontal components reversed, vertical
+      // kept, charge reversed; MOM-NOTES §4).
+      const kernel::Line iq = mirror(lq);
+      const Eigen::Vector3d u = -iq.t;  // direction of the perfect-image current
+      cd tt = sp.t.dot(u);
+      cd qq = -1.0;
+      if (real) {
+        const Eigen::Vector3d d = lp.centre() - iq.centre();
+        const double cos_t = d.z() / d.norm();
+        const auto [rv, rh] = kernel::reflection(eps_c, cos_t);
+        Eigen::Vector3d rho(d.x(), d.y(), 0.0);
+        Eigen::Vector3d phi = rho.norm() > 1e-12 * d.norm() ? Eigen::Vector3d(Eigen::Vector3d::UnitZ().cross(rho.normalized()))
+                                                            : Eigen::Vector3d(sp.t.cross(Eigen::Vector3d::UnitZ()));
+        if (phi.norm() < 1e-12) phi = Eigen::Vector3d::UnitX();
+        phi.normalize();
+        const Eigen::Vector3d u_te = u.dot(phi) * phi, u_tm = u - u_te;
+        // Reflection-coefficient approximation: TE part weighted by −R_h, TM part by R_v.
+        tt = -rh * sp.t.dot(u_te) + rv * sp.t.dot(u_tm);
+        qq = -rv;
       }
+      out.image = kernel::pair_integrals(lp, iq, a2, k);
+      out.tt = tt;
+      out.qq = qq;
     }
-    // Conductor loss: ∫ Λ_m Λ_n z' dl on the shared segment (∫N_αN_β = Δ/3 or Δ/6).
-    if (sp.z_per_m != cd(0.0, 0.0))
-      for (const PieceRef& m : pieces[p])
-        for (const PieceRef& nn : pieces[p])
-          z(m.basis, nn.basis) += m.sign * nn.sign * sp.z_per_m * sp.length * (m.shape == nn.shape ? 1.0 / 3.0 : 1.0 / 6.0);
+    return out;
+  };
+
+  for (std::size_t p0 = 0; p0 < ns; p0 += kRowBlock) {
+    const std::size_t rows = std::min(kRowBlock, ns - p0);
+    parallel::for_each_index(rows, 1, [&](std::size_t r) {
+      const std::size_t p = p0 + r;
+      block[r].assign(ns - p, PairTerms{});
+      if (pieces[p].empty()) return;
+      for (std::size_t q = p; q < ns; ++q)
+        if (!pieces[q].empty()) block[r][q - p] = pair_terms(p, q);
+    });
+    for (std::size_t r = 0; r < rows; ++r) {
+      const std::size_t p = p0 + r;
+      const Segment& sp = mesh.segments[p];
+      if (pieces[p].empty()) continue;
+      for (std::size_t q = p; q < ns; ++q) {
+        const Segment& sq = mesh.segments[q];
+        if (pieces[q].empty()) continue;
+        const PairTerms& pt = block[r][q - p];
+        accumulate(p, q, pt.direct, sp.t.dot(sq.t), 1.0, p != q);
+        if (ground) accumulate(p, q, pt.image, pt.tt, pt.qq, p != q);
+      }
+      // Conductor loss: ∫ Λ_m Λ_n z' dl on the shared segment (∫N_αN_β = Δ/3 or Δ/6).
+      if (sp.z_per_m != cd(0.0, 0.0))
+        for (const PieceRef& m : pieces[p])
+          for (const PieceRef& nn : pieces[p])
+            z(m.basis, nn.basis) += m.sign * nn.sign * sp.z_per_m * sp.length * (m.shape == nn.shape ? 1.0 / 3.0 : 1.0 / 6.0);
+    }
   }
 
   return sys;

@@ -11,6 +11,7 @@
 #include <thread>
 
 #include "core/constants.hpp"
+#include "core/parallel.hpp"
 
 namespace standoff::exposure {
 
@@ -19,48 +20,24 @@ namespace {
 constexpr std::size_t kMaxNotEvaluatedListed = 20;
 constexpr int kRays = 36;  // directions for the detailed compliance distance (every 10°)
 
-unsigned thread_count(unsigned requested) {
-  if (requested > 0) return requested;
-  const unsigned hw = std::thread::hardware_concurrency();
-  return hw == 0 ? 1u : hw;
-}
+unsigned thread_count(unsigned requested) { return parallel::thread_count(requested); }
 
-// Fields at all points, the points split into contiguous blocks, one block per thread. Each point
-// is computed independently, so the result does not depend on the thread count.
+// Fields at all points, in chunks handed to the threads (core/parallel.hpp). Each point is
+// computed independently and stored by index, so the result does not depend on the thread count.
 std::vector<em::FieldPoint> compute_fields(const FieldFunction& field, const std::vector<Eigen::Vector3d>& pts,
                                            unsigned threads) {
   std::vector<em::FieldPoint> out(pts.size());
   if (pts.empty()) return out;
-  constexpr std::size_t kMinBlock = 64;
-  const std::size_t blocks = std::max<std::size_t>(1, std::min<std::size_t>(threads, pts.size() / kMinBlock));
+  constexpr std::size_t kChunk = 200;  // 40 body lines: small enough to balance, large enough to amortise
   const std::span<const Eigen::Vector3d> all(pts);
-  auto run_block = [&](std::size_t b) {
-    const std::size_t chunk = (pts.size() + blocks - 1) / blocks;
-    const std::size_t begin = b * chunk;
-    const std::size_t end = std::min(pts.size(), begin + chunk);
-    if (begin >= end) return;
-    auto r = field(all.subspan(begin, end - begin));
-    if (r.size() != end - begin) throw std::logic_error("field function returned the wrong number of points");
-    std::copy(r.begin(), r.end(), out.begin() + static_cast<std::ptrdiff_t>(begin));
-  };
-  if (blocks == 1) {
-    run_block(0);
-    return out;
-  }
-  std::vector<std::exception_ptr> errors(blocks);
-  std::vector<std::thread> pool;
-  pool.reserve(blocks);
-  for (std::size_t b = 0; b < blocks; ++b)
-    pool.emplace_back([&, b] {
-      try {
-        run_block(b);
-      } catch (...) {
-        errors[b] = std::current_exception();
-      }
-    });
-  for (auto& t : pool) t.join();
-  for (auto& e : errors)
-    if (e) std::rethrow_exception(e);
+  parallel::for_chunks(
+      pts.size(), kChunk,
+      [&](std::size_t begin, std::size_t end) {
+        auto r = field(all.subspan(begin, end - begin));
+        if (r.size() != end - begin) throw std::logic_error("field function returned the wrong number of points");
+        std::copy(r.begin(), r.end(), out.begin() + static_cast<std::ptrdiff_t>(begin));
+      },
+      threads);
   return out;
 }
 
@@ -159,8 +136,15 @@ void note_not_evaluated(OperationResult& op, SitePoint at, const std::string& zo
   if (op.not_evaluated.size() < kMaxNotEvaluatedListed) op.not_evaluated.push_back({at, zone, reason});
 }
 
+// Ratios within kTieRelative of each other count as equal, so that the place reported for
+// symmetric maxima does not depend on the last bits of the arithmetic (e.g. the AVX2 or the
+// baseline build of the near-field kernel): the first one considered stays.
+constexpr double kTieRelative = 1e-12;
+
+bool clearly_greater(double a, double b) { return a > b + kTieRelative * std::abs(b); }
+
 void consider_worst(PlaceExposure& worst, bool& any, const PlaceExposure& candidate) {
-  if (!any || candidate.ratio > worst.ratio) {
+  if (!any || clearly_greater(candidate.ratio, worst.ratio)) {
     worst = candidate;
     any = true;
   }
@@ -189,7 +173,8 @@ void detailed_distances(const SourceInput& s, const SourceLimits& lim, unsigned 
   const auto f = compute_fields(s.field, pts, threads);
   const std::size_t nr = radii.size();
   std::vector<BodyResult> body(nr * kRays);
-  for (std::size_t i = 0; i < body.size(); ++i) body[i] = reduce_body(&f[i * kBodySamples], lim);
+  parallel::for_each_index(
+      body.size(), 256, [&](std::size_t i) { body[i] = reduce_body(&f[i * kBodySamples], lim); }, threads);
 
   std::optional<double> dist[2];
   bool beyond[2] = {false, false};
@@ -267,12 +252,19 @@ std::string body_rule_text(limits::Standard s) {
 }
 
 // Coarse-first grids (docs/methods.md): below this frequency (λ ≥ 4 m, four times the 1 m coarse
-// spacing) a cell more than kNearAntenna_m from every antenna wire in plan, whose four computed
-// 1 m neighbours are all valid and below kCoarseThreshold of both tiers' limits, takes the largest
-// neighbouring value instead of being computed. Everything else is computed at full resolution.
+// spacing) the grid is computed from coarse to fine in blocks of 8, 4, 2 and 1 m. A cell more than
+// kNearAntenna_m from every antenna wire in plan, inside a block whose four computed corners are
+// valid and so low that kEstimateFactor × their largest ratio is below kCoarseThreshold of both
+// tiers' limits (blocks above 1 m also keep kNearAntenna_m + their size from every wire), takes
+// that estimate instead of being computed. Everything else is computed at full resolution.
+// kEstimateFactor: the largest ratio of a computed cell to the largest of its block's corners,
+// measured on the test stations (tests/exposure, "coarse-first grids": HF dipoles, 64 m zone), is
+// 1.0005; the factor 2 keeps every estimate above the computed value with a wide margin.
 constexpr double kCoarseMaxFrequency_hz = 75e6;
 constexpr double kNearAntenna_m = 3.0;
 constexpr double kCoarseThreshold = 0.05;
+constexpr double kCoarseMaxBlock_m = 8.0;
+constexpr double kEstimateFactor = 2.0;
 
 void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim, const EvaluationOptions& opt,
                    unsigned threads, OperationResult& op, bool& any) {
@@ -293,9 +285,16 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
   // Per cell: computed?, valid?, ratio per tier (max over its body lines), the zone-tier worst.
   std::vector<char> computed(ncell, 0), valid(ncell, 0);
   std::vector<double> rc(ncell, 0.0), ru(ncell, 0.0);
-  std::vector<PlaceExposure> best(ncell);
+  // The grid's worst computed place so far: the first cell in index order with the largest ratio of
+  // the zone's tier (per-cell bests are kept only for the batch being computed, so memory does not
+  // grow with the zone's area).
+  bool have_best = false;
+  std::size_t best_cell = 0;
+  PlaceExposure grid_best;
 
-  auto compute = [&](const std::vector<std::size_t>& cells) {
+  // Cells are computed in batches so that the points and fields held at once stay bounded.
+  constexpr std::size_t kBatchCells = 8192;
+  auto compute_batch = [&](std::span<const std::size_t> cells) {
     std::vector<Eigen::Vector3d> pts;
     std::vector<std::size_t> owner;
     for (std::size_t c : cells) {
@@ -315,10 +314,14 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       computed[c] = 1;
       valid[c] = 1;
     }
-    std::vector<char> seen(ncell, 0);
+    // Body lines reduced to ratios on the pool, then merged in body-line order.
+    std::vector<BodyResult> reduced(owner.size());
+    parallel::for_each_index(
+        owner.size(), 256, [&](std::size_t b) { reduced[b] = reduce_body(&f[b * kBodySamples], lim); }, threads);
+    std::map<std::size_t, PlaceExposure> best;  // this batch's cells
     for (std::size_t b = 0; b < owner.size(); ++b) {
       const std::size_t c = owner[b];
-      const BodyResult r = reduce_body(&f[b * kBodySamples], lim);
+      const BodyResult& r = reduced[b];
       if (!r.valid) {
         if (valid[c] && zg.state[c] != CellState::outside) {
           const auto& p = pts[b * kBodySamples];
@@ -332,47 +335,134 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       }
       rc[c] = std::max(rc[c], r.avg[0].value);
       ru[c] = std::max(ru[c], r.avg[1].value);
-      if (!seen[c] || r.avg[ti].value > best[c].ratio) {
-        seen[c] = 1;
+      auto it = best.find(c);
+      if (it == best.end() || r.avg[ti].value > it->second.ratio) {
         const auto& p = pts[b * kBodySamples + static_cast<std::size_t>(r.peak_sample[ti])];
         best[c] = PlaceExposure{SitePoint{p.x(), p.y(), p.z()}, zg.zone, zg.tier, r.avg[ti].value, r.peak[ti],
                                 r.avg[ti].quantity, r.e_at_peak[ti], r.h_at_peak[ti]};
       }
     }
+    for (const auto& [c, pe] : best) {
+      if (zg.state[c] == CellState::outside || !valid[c]) continue;
+      if (!have_best || clearly_greater(pe.ratio, grid_best.ratio) ||
+          (!clearly_greater(grid_best.ratio, pe.ratio) && c < best_cell)) {
+        have_best = true;
+        best_cell = c;
+        grid_best = pe;
+      }
+    }
+  };
+  auto compute = [&](const std::vector<std::size_t>& cells) {
+    for (std::size_t b = 0; b < cells.size(); b += kBatchCells)
+      compute_batch(std::span<const std::size_t>(cells).subspan(b, std::min(kBatchCells, cells.size() - b)));
   };
 
   const bool coarse_first = opt.coarse_first && src.frequency_hz <= kCoarseMaxFrequency_hz && s < 1.0;
-  const std::size_t step = coarse_first ? static_cast<std::size_t>(std::max(2.0, std::round(1.0 / s))) : 1;
-  auto is_node = [&](std::size_t i, std::size_t j) {
-    return (i % step == 0 || i == nx - 1) && (j % step == 0 || j == ny - 1);
+  // Block sizes (in cells) of the coarse levels: level 0 is the 1 m block, each further level
+  // doubles it, up to kCoarseMaxBlock_m.
+  std::vector<std::size_t> steps;
+  if (coarse_first) {
+    steps.push_back(static_cast<std::size_t>(std::max(2.0, std::round(1.0 / s))));
+    while (static_cast<double>(steps.back() * 2) * s <= kCoarseMaxBlock_m + 1e-9 && steps.back() * 2 < std::max(nx, ny))
+      steps.push_back(steps.back() * 2);
+  } else {
+    steps.push_back(1);
+  }
+  const std::size_t top_level = steps.size() - 1;
+  auto is_node = [&](std::size_t level, std::size_t i, std::size_t j) {
+    const std::size_t st = steps[level];
+    return (i % st == 0 || i == nx - 1) && (j % st == 0 || j == ny - 1);
   };
-  std::vector<std::size_t> first, second;
+  // Plan distance from each block's centre to the antenna, per level above 0 (computed once).
+  std::vector<std::vector<double>> block_distance(steps.size());
+  std::vector<std::size_t> blocks_x(steps.size(), 0);
+  for (std::size_t l = 1; l < steps.size(); ++l) {
+    const std::size_t st = steps[l], bx = (nx + st - 1) / st, by = (ny + st - 1) / st;
+    blocks_x[l] = bx;
+    block_distance[l].resize(bx * by);
+    parallel::for_each_index(
+        bx * by, 256,
+        [&, st, bx](std::size_t b) {
+          const std::size_t i0 = (b % bx) * st, j0 = (b / bx) * st;
+          const std::size_t i1 = std::min(i0 + st, nx - 1), j1 = std::min(j0 + st, ny - 1);
+          const PlanPoint a = centre_of(j0 * nx + i0), d = centre_of(j1 * nx + i1);
+          block_distance[l][b] = plan_distance_to_antenna(src, PlanPoint{0.5 * (a.x_m + d.x_m), 0.5 * (a.y_m + d.y_m)});
+        },
+        threads);
+  }
+  auto corners = [&](std::size_t level, std::size_t c) {
+    const std::size_t st = steps[level], i = c % nx, j = c / nx;
+    const std::size_t i0 = i - i % st, j0 = j - j % st;
+    const std::size_t i1 = std::min(i0 + st, nx - 1), j1 = std::min(j0 + st, ny - 1);
+    return std::array<std::size_t, 4>{j0 * nx + i0, j0 * nx + i1, j1 * nx + i0, j1 * nx + i1};
+  };
+  // A block allows estimates inside it when its four corners are computed and valid, the estimate
+  // (kEstimateFactor × their largest ratio) stays below kCoarseThreshold of both tiers' limits, and,
+  // above level 0, the block's centre is at least kNearAntenna_m + its size from every antenna wire.
+  auto settled = [&](std::size_t level, std::size_t c) {
+    const auto k = corners(level, c);
+    for (std::size_t n : k)
+      if (!computed[n] || !valid[n] || kEstimateFactor * std::max(rc[n], ru[n]) >= kCoarseThreshold) return false;
+    if (level == 0) return true;
+    const std::size_t st = steps[level];
+    const double size_m = static_cast<double>(st) * s;
+    return block_distance[level][(c / nx / st) * blocks_x[level] + (c % nx) / st] >= kNearAntenna_m + size_m;
+  };
+  // The finest level at or above `from` whose block around c allows an estimate (or none).
+  auto settled_level = [&](std::size_t from, std::size_t c) -> std::optional<std::size_t> {
+    for (std::size_t l = from; l <= top_level; ++l)
+      if (settled(l, c)) return l;
+    return std::nullopt;
+  };
+
+  // First pass: the nodes of the coarsest level and every cell near the antenna.
+  std::vector<std::size_t> pass;
+  std::vector<char> near(coarse_first ? ncell : 0, 0);
+  if (coarse_first)
+    parallel::for_each_index(
+        ncell, 4096,
+        [&](std::size_t c) {
+          near[c] = zg.state[c] != CellState::outside && plan_distance_to_antenna(src, centre_of(c)) <= kNearAntenna_m;
+        },
+        threads);
   for (std::size_t c = 0; c < ncell; ++c) {
     const bool inside_zone = zg.state[c] != CellState::outside;
     if (!coarse_first) {
-      if (inside_zone) first.push_back(c);
+      if (inside_zone) pass.push_back(c);
       continue;
     }
-    const bool node = is_node(c % nx, c / nx);
-    const bool near = inside_zone && plan_distance_to_antenna(src, centre_of(c)) <= kNearAntenna_m;
-    if (node || near) first.push_back(c);
+    if (is_node(top_level, c % nx, c / nx) || near[c]) pass.push_back(c);
   }
-  compute(first);
-  // Second pass: cells whose coarse neighbours do not allow an estimate are computed too.
-  std::vector<std::array<std::size_t, 4>> neighbours(ncell);
+  compute(pass);
   if (coarse_first) {
+    // Finer levels: the nodes of level l − 1 inside blocks of level ≥ l that allow no estimate.
+    for (std::size_t l = top_level; l >= 1; --l) {
+      pass.clear();
+      for (std::size_t c = 0; c < ncell; ++c)
+        if (!computed[c] && is_node(l - 1, c % nx, c / nx) && !settled_level(l, c)) pass.push_back(c);
+      compute(pass);
+    }
+    // Zone cells that no block allows to estimate are computed.
+    pass.clear();
+    for (std::size_t c = 0; c < ncell; ++c)
+      if (zg.state[c] != CellState::outside && !computed[c] && !settled_level(0, c)) pass.push_back(c);
+    compute(pass);
+    // Last pass: an estimated cell that could exceed the largest computed ratio of the zone's tier
+    // (kEstimateFactor × its corners' largest) is computed too, so the grid's worst place is always a
+    // computed cell and never lower than the full grid's.
+    double worst_computed = 0.0;
+    for (std::size_t c = 0; c < ncell; ++c)
+      if (zg.state[c] != CellState::outside && computed[c] && valid[c]) worst_computed = std::max(worst_computed, ti == 0 ? rc[c] : ru[c]);
+    pass.clear();
     for (std::size_t c = 0; c < ncell; ++c) {
       if (zg.state[c] == CellState::outside || computed[c]) continue;
-      const std::size_t i = c % nx, j = c / nx;
-      const std::size_t i0 = i - i % step, j0 = j - j % step;
-      const std::size_t i1 = std::min(i0 + step, nx - 1), j1 = std::min(j0 + step, ny - 1);
-      neighbours[c] = {j0 * nx + i0, j0 * nx + i1, j1 * nx + i0, j1 * nx + i1};
-      bool estimate = true;
-      for (std::size_t n : neighbours[c])
-        if (!valid[n] || std::max(rc[n], ru[n]) >= kCoarseThreshold) estimate = false;
-      if (!estimate) second.push_back(c);
+      const auto level = settled_level(0, c);
+      double corner = 0.0;
+      if (level)
+        for (std::size_t n : corners(*level, c)) corner = std::max(corner, ti == 0 ? rc[n] : ru[n]);
+      if (!level || kEstimateFactor * corner > worst_computed) pass.push_back(c);
     }
-    compute(second);
+    compute(pass);
   }
 
   for (std::size_t c = 0; c < ncell; ++c) {
@@ -386,24 +476,19 @@ void evaluate_grid(GridSpec& g, const SourceInput& src, const SourceLimits& lim,
       layer.state[c] = CellState::evaluated;
       layer.ratio_controlled[c] = rc[c];
       layer.ratio_uncontrolled[c] = ru[c];
-      consider_worst(op.worst, any, best[c]);
       continue;
     }
-    // Estimated from the largest of its computed neighbours (all below kCoarseThreshold).
+    // Estimated from the finest block allowing it: kEstimateFactor × the largest ratio of its corners
+    // (below the computed worst of the grid by the last pass, so it never becomes the worst place).
+    const auto level = settled_level(0, c);
+    if (!level) throw std::logic_error("coarse-first grid: a cell was neither computed nor estimated");
     layer.state[c] = CellState::evaluated;
-    std::size_t top = neighbours[c][0];
-    for (std::size_t n : neighbours[c]) {
-      layer.ratio_controlled[c] = std::max(layer.ratio_controlled[c], rc[n]);
-      layer.ratio_uncontrolled[c] = std::max(layer.ratio_uncontrolled[c], ru[n]);
-      if ((ti == 0 ? rc[n] : ru[n]) > (ti == 0 ? rc[top] : ru[top])) top = n;
+    for (std::size_t n : corners(*level, c)) {
+      layer.ratio_controlled[c] = std::max(layer.ratio_controlled[c], kEstimateFactor * rc[n]);
+      layer.ratio_uncontrolled[c] = std::max(layer.ratio_uncontrolled[c], kEstimateFactor * ru[n]);
     }
-    PlaceExposure pe = best[top];
-    pe.at.x_m = centre_of(c).x_m;
-    pe.at.y_m = centre_of(c).y_m;
-    pe.zone = zg.zone;
-    pe.tier = zg.tier;
-    consider_worst(op.worst, any, pe);
   }
+  if (have_best) consider_worst(op.worst, any, grid_best);
   g.grid.layers.push_back(std::move(layer));
 }
 

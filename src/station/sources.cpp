@@ -15,6 +15,7 @@
 #include "em/builders.hpp"
 #include "em/fields.hpp"
 #include "em/grounds_toml.hpp"
+#include "em/near_field.hpp"
 #include "exposure/aperture.hpp"
 #include "exposure/screening.hpp"
 #include "limits/limits_toml.hpp"
@@ -117,6 +118,7 @@ std::complex<double> line_side_impedance(const Antenna& a, std::complex<double> 
 
 struct Solved {
   std::shared_ptr<const em::Solution> solution;
+  std::shared_ptr<const em::NearFieldEvaluator> near;  // built once, shared by its operations
   double gain = 1.0;
   double size_m = 0.0;
   std::vector<std::string> notes;
@@ -313,6 +315,7 @@ Built build(const Station& st, const BuildOptions& options) {
 
     // Antenna model.
     std::shared_ptr<const em::Solution> solution;
+    std::shared_ptr<const em::NearFieldEvaluator> near;
     double gain = 1.0;
     double size_m = 0.0;
     std::optional<exposure::ApertureRegions> dish;
@@ -331,6 +334,7 @@ Built build(const Station& st, const BuildOptions& options) {
           s.gain = em::peak_gain(*sol).gain;
           s.size_m = max_extent(sol->model);
           for (const auto& w : sol->warnings) s.notes.push_back("antenna model: " + w);
+          s.near = std::make_shared<const em::NearFieldEvaluator>(*sol);
           s.solution = std::move(sol);
         } catch (const InputError& e) {
           const std::string key = antenna_key_for(ant, e);
@@ -340,6 +344,7 @@ Built build(const Station& st, const BuildOptions& options) {
         it = solved.emplace(key, std::move(s)).first;
       }
       solution = it->second.solution;
+      near = it->second.near;
       gain = it->second.gain;
       size_m = it->second.size_m;
       for (const auto& n : it->second.notes) src.notes.push_back(n);
@@ -410,7 +415,7 @@ Built build(const Station& st, const BuildOptions& options) {
     // Field function at power p.
     const Eigen::Vector3d phase_centre(ant.position.x_m, ant.position.y_m, ant.height_m);
     if (solution) {
-      src.field = [solution, p](std::span<const Eigen::Vector3d> pts) { return em::near_fields(*solution, pts, p); };
+      src.field = [near, p](std::span<const Eigen::Vector3d> pts) { return near->evaluate(pts, p); };
     } else if (dish) {
       exposure::Aperture ap{units::metres(*ant.diameter_m), units::Fraction{ant.efficiency.value_or(0.55)}};
       src.field = aperture_source(phase_centre, exposure::aperture_regions(ap, units::watts(p), op.frequency), p);

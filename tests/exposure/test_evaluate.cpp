@@ -185,11 +185,20 @@ TEST_CASE("rounding: distances up to 0.1 m, power down to 3 significant figures"
   CHECK(ex::round_down_power(6.5199) == Approx(6.51));
 }
 
-TEST_CASE("coarse-first grids: same worst place as the full grid, estimates only far below the limit",
+TEST_CASE("coarse-first grids: same worst place as the full grid, estimates never lower and far below the limit",
           "[closed_form]") {
-  const auto sol = hf_dipole();
-  auto in = dipole_input(sol, 400.0);
-  in.zones = {square_zone("yard", Tier::uncontrolled, -10.0, -10.0, 20.0)};
+  // Two HF dipoles over average ground; a 64 m square zone so that the 8, 4 and 2 m blocks are used.
+  struct Case {
+    double f_hz, length_m, height_m, power_w;
+  };
+  const Case k = GENERATE(Case{14.2e6, 10.1, 8.0, 400.0}, Case{7.1e6, 20.1, 12.0, 1500.0});
+  em::Placement at{0.0, 0.0, k.height_m, pi / 2};
+  const auto sol = std::make_shared<em::Solution>(
+      em::solve(em::dipole(k.f_hz, k.length_m, at, em::Conductor{1e-3}, em::real_ground(15.0, 0.005, "average"))));
+  ex::EvaluationInput in;
+  in.sources = {mom_source(sol, k.power_w)};
+  in.limits = {fcc_limits(k.f_hz)};
+  in.zones = {square_zone("yard", Tier::uncontrolled, -32.0, -32.0, 64.0)};
   ex::EvaluationOptions full, fast;
   full.threads = fast.threads = 2;
   full.coarse_first = false;
@@ -202,14 +211,20 @@ TEST_CASE("coarse-first grids: same worst place as the full grid, estimates only
   const auto& la = a.grids[0].layers[0];
   const auto& lb = b.grids[0].layers[0];
   std::size_t estimated = 0;
+  // Largest computed ratio / largest corner ratio (estimate / 2); measured 1.0005 at 14.2 MHz and
+  // 1.0000 at 7.1 MHz (GCC 12, x86-64): the field far from the wire decays monotonically here.
+  double worst_under = 0.0;
   for (std::size_t c = 0; c < la.ratio_uncontrolled.size(); ++c) {
     if (lb.ratio_uncontrolled[c] == la.ratio_uncontrolled[c]) continue;  // computed in both
     ++estimated;
-    // Estimated cells: below the 5 % threshold, and within a factor 2 of the computed value
-    // (the field changes slowly more than 3 m from the wire at λ = 21 m).
+    // Estimated cells: below the 5 % threshold and never below the computed value.
     CHECK(lb.ratio_uncontrolled[c] < 0.05);
-    CHECK(lb.ratio_uncontrolled[c] == Approx(la.ratio_uncontrolled[c]).epsilon(1.0));
-    CHECK(la.ratio_uncontrolled[c] < 0.05);
+    CHECK(lb.ratio_uncontrolled[c] >= la.ratio_uncontrolled[c]);
+    CHECK(lb.ratio_controlled[c] >= la.ratio_controlled[c]);
+    worst_under = std::max(worst_under, 2.0 * la.ratio_uncontrolled[c] / lb.ratio_uncontrolled[c]);
   }
-  CHECK(estimated > 0);
+  INFO("estimated " << estimated << " of " << la.ratio_uncontrolled.size() << " cells; largest computed/corner ratio "
+                    << worst_under);
+  CHECK(estimated > la.ratio_uncontrolled.size() / 2);  // most of the zone is far below the limit
+  CHECK(worst_under < 2.0);
 }
