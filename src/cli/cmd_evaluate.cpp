@@ -209,7 +209,8 @@ report::Record::Placement placement_for_report(const station::Station& st, std::
   for (int k = 0; k < 24; ++k) po.azimuths_rad.push_back(k * 3.14159265358979323846 / 12.0);
   station::PlaceInput in = station::place_input(st, po);
   in.setup.progress = place_progress(err, json);
-  const siting::PlaceResult res = siting::place(in.setup);
+  siting::PlaceResult res = siting::place(in.setup);
+  station::apply_current_installation(st, in, res);
   return {report::place_html_section(st, in, res), report::place_heatmap_svg(st, in, res, true)};
 }
 

@@ -98,7 +98,8 @@ void add_place(CLI::App& root, Commands& commands) {
     const station::Station st = station::load_station_file(o->station);
     station::PlaceInput in = station::place_input(st, opts);
     in.setup.progress = place_progress(err, o->json);
-    const siting::PlaceResult res = siting::place(in.setup);
+    siting::PlaceResult res = siting::place(in.setup);
+    station::apply_current_installation(st, in, res);
     const nlohmann::json j = report::place_json(st, in, res);
     if (!o->out.empty())
       report::write_files_atomically(o->out, {{report::kPlaceJsonFile, j.dump(2) + "\n"},

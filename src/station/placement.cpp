@@ -1,9 +1,12 @@
 #include "station/placement.hpp"
 
+#include "station/installation.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <map>
 #include <memory>
+#include <set>
 #include <sstream>
 
 #include "core/constants.hpp"
@@ -93,6 +96,7 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
     if (!ant) throw InputError(Where{st.file, 0, "antenna"}, "no wire antenna with an operation to place");
   }
   s.antenna = ant->name;
+  pi.antenna = ant->name;
   s.origin = Eigen::Vector2d(ant->position.x_m, ant->position.y_m);
   s.azimuth0_rad = ant->azimuth_rad;
   s.feed_height_m = ant->height_m;
@@ -227,7 +231,9 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
     pi.notes.push_back("supports moved with the antenna for the power-line checks: " + names +
                        " (at each candidate they stand for whatever holds the antenna there, of the same height)");
   }
-  pi.notes.push_back("the feed-line route itself is not checked against the power lines");
+  pi.notes.push_back("the feed-line route itself is not checked against the power lines at the candidates; where the "
+                     "antenna stands now (`current`) every check of `standoff lines` on it, its supports and its feed "
+                     "lines applies");
 
   // Maps: one per frequency, covering every plan offset any candidate needs.
   const double extent = siting::required_map_extent(s);
@@ -250,6 +256,8 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
     if (override_line) op.line = *override_line;
     else if (det.line) op.line = det.line->line;
     if (fl) op.current_length_m = fl->length.value();
+    if (fl && std::find(pi.feed_lines.begin(), pi.feed_lines.end(), fl->name) == pi.feed_lines.end())
+      pi.feed_lines.push_back(fl->name);
     if (fl && fl->swr) op.load = power::LoadSpec::from_swr(*fl->swr);
     else op.load = power::LoadSpec::from_impedance(det.solution->impedance());
     if (op.line) {
@@ -276,6 +284,40 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
   }
   pi.line_class = line_name;
   return pi;
+}
+
+void apply_current_installation(const Station& st, const PlaceInput& in, siting::PlaceResult& res) {
+  // The names of what belongs to the antenna: its own wires, the spans that describe them or its
+  // feed lines, and the supports those spans hang from.
+  std::set<std::string> subjects;
+  for (const auto& sp : st.installation.spans) {
+    const bool mine = (sp.antenna && *sp.antenna == in.antenna) ||
+                      (sp.feed_line && std::find(in.feed_lines.begin(), in.feed_lines.end(), *sp.feed_line) != in.feed_lines.end());
+    if (!mine) continue;
+    subjects.insert(sp.name);
+    if (sp.from_support) subjects.insert(*sp.from_support);
+    if (sp.to_support) subjects.insert(*sp.to_support);
+  }
+  const auto report = check_installation(st);
+  siting::Candidate& cur = res.current;
+  for (const auto& c : report.checks) {
+    if (c.pass() || c.line.empty()) continue;  // only power-line checks rank (as in the search)
+    const bool mine = subjects.count(c.subject) > 0 || c.subject.rfind(in.antenna + ":", 0) == 0;
+    if (!mine) continue;
+    const std::string text = c.rule + ": " + c.subject + " vs " + c.line;
+    if (std::find(cur.failed_checks.begin(), cur.failed_checks.end(), text) != cur.failed_checks.end()) continue;
+    cur.failed_checks.push_back(text);
+    if (cur.clearance_ok) {
+      cur.clearance_ok = false;
+      cur.permitted_pep_w = 0.0;
+      cur.binding = siting::Binding{};
+      cur.binding.kind = "line check";
+      cur.binding.rule = c.rule;
+      cur.binding.subject = c.subject;
+      cur.binding.line = c.line;
+      cur.binding.text = "line check: " + text + " (standoff lines, as the station stands)";
+    }
+  }
 }
 
 }  // namespace standoff::station

@@ -27,6 +27,8 @@ struct PlaceOptions {
 // Everything `place` needs, kept alive together (the setup refers to the maps).
 struct PlaceInput {
   siting::PlaceSetup setup;
+  std::string antenna;                    // the antenna placed
+  std::vector<std::string> feed_lines;    // the feed lines of its operations
   std::string operating_position_source;  // "station file (line N)" or the default used
   std::string line_class;                 // the class searched ("" = no feed line)
   std::vector<std::string> notes;
@@ -37,5 +39,11 @@ struct PlaceInput {
 // antenna, an antenna without operations, an unknown line class, or a line without data at an
 // operation's frequency.
 PlaceInput place_input(const Station& station, const PlaceOptions& options);
+
+// The search moves the antenna's wires and supports, not its feed-line route: so that `current`
+// never reads clear where `standoff lines` fails, the station's own installation checks (as it
+// stands) that concern this antenna, its supports or its feed lines are applied to `current` —
+// a failure there sets its clearance to failed and its permitted PEP to 0.
+void apply_current_installation(const Station& station, const PlaceInput& in, siting::PlaceResult& result);
 
 }  // namespace standoff::station
