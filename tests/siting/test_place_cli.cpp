@@ -148,3 +148,25 @@ TEST_CASE("place: the same result with 1 and 2 threads", "[place][cli]") {
   REQUIRE(a.code == 0);
   CHECK(a.out == b.out);
 }
+
+TEST_CASE("place: `current` fails where standoff lines fails for the antenna's own feed line", "[place][cli]") {
+  // The demo's ladder line (a [[span]] of the doublet's feed line) fails the failed-support swing
+  // check in `standoff lines`; the search does not move feed-line routes, so `current` must carry
+  // that failure rather than read clear (a false all-clear on a check that can kill).
+  const std::string demo = std::string(STANDOFF_SOURCE_DIR) + "/docs/examples/demo-station.toml";
+  const auto lines = run_cli({"lines", demo, "--json"});
+  REQUIRE(lines.code == 1);
+  const auto checks = nlohmann::json::parse(lines.out).at("checks");  // kept: range-for over a temporary dangles
+  bool ladder_fails = false;
+  for (const auto& c : checks)
+    if (!c.at("pass").get<bool>() && c.at("subject").get<std::string>() == "doublet ladder line") ladder_fails = true;
+  REQUIRE(ladder_fails);
+  const auto r = run_cli({"place", demo, "--step", "8 m", "--azimuths", "90 deg", "--top", "3", "--json", "--threads", "2"});
+  INFO(r.err);
+  REQUIRE((r.code == 0 || r.code == 1));
+  const auto cur = nlohmann::json::parse(r.out).at("current");
+  CHECK_FALSE(cur.at("clearance_ok").get<bool>());
+  CHECK(cur.at("permitted_pep_w").get<double>() == 0.0);
+  CHECK(cur.at("binding").at("kind") == "line check");
+  CHECK(cur.at("binding").at("subject").get<std::string>() == "doublet ladder line");
+}
