@@ -4,17 +4,12 @@
 #include <cmath>
 #include <sstream>
 
+#include "core/number_text.hpp"
 #include "core/constants.hpp"
 #include "core/error.hpp"
 
 namespace standoff::exposure {
 namespace {
-std::string num(double v, int precision = 4) {
-  std::ostringstream o;
-  o.precision(precision);
-  o << v;
-  return o.str();
-}
 }  // namespace
 
 std::string to_string(GroundFactor g) {
@@ -59,23 +54,23 @@ units::PowerDensity far_field_density(units::Power p, units::Gain g, units::Leng
 
 DensityLimit screening_density_limit(const limits::LimitValues& v) {
   if (v.s && !v.s_is_equivalent)
-    return {*v.s, Binding::s, "power-density limit S = " + num(v.s->value()) + " W/m²"};
+    return {*v.s, Binding::s, "power-density limit S = " + significant(v.s->value()) + " W/m²"};
   std::optional<DensityLimit> best;
   if (v.e) {
     const double e = v.e->value();
     const double s = e * e / constants::eta0;
     best = DensityLimit{units::watts_per_square_metre(s), Binding::e,
-                        "plane-wave equivalent of E = " + num(e) + " V/m: E²/η0 = " + num(s) + " W/m²"};
+                        "plane-wave equivalent of E = " + significant(e) + " V/m: E²/η0 = " + significant(s) + " W/m²"};
   }
   if (v.h) {
     const double h = v.h->value();
     const double s = constants::eta0 * h * h;
     if (!best || s < best->s.value())
       best = DensityLimit{units::watts_per_square_metre(s), Binding::h,
-                          "plane-wave equivalent of H = " + num(h) + " A/m: η0·H² = " + num(s) + " W/m²"};
+                          "plane-wave equivalent of H = " + significant(h) + " A/m: η0·H² = " + significant(s) + " W/m²"};
   }
   if (best) return *best;
-  if (v.s) return {*v.s, Binding::s, "plane-wave-equivalent power density S = " + num(v.s->value()) + " W/m²"};
+  if (v.s) return {*v.s, Binding::s, "plane-wave-equivalent power density S = " + significant(v.s->value()) + " W/m²"};
   throw InputError(Where{v.source, 0, "limits"}, "the limits table gives no E, H or S at this frequency");
 }
 

@@ -2,16 +2,11 @@
 
 #include <sstream>
 
+#include "core/number_text.hpp"
 #include "core/constants.hpp"
 
 namespace standoff::power {
 namespace {
-std::string num(double v, int precision = 4) {
-  std::ostringstream o;
-  o.precision(precision);
-  o << v;
-  return o.str();
-}
 }  // namespace
 
 units::Power eirp(units::Power p, units::Gain g) { return p * g.ratio; }
@@ -29,10 +24,10 @@ PowerChain power_chain(const ChainInput& in, units::Time window) {
   c.steps.push_back({"transmitter PEP", in.pep, "peak envelope power at the transmitter output"});
   const units::Power after_duty = in.pep * in.duty.value;
   c.steps.push_back({"duty factor", after_duty,
-                     "× " + num(in.duty.percent()) + " % (" + (in.duty_source.empty() ? "given" : in.duty_source) + ")"});
+                     "× " + significant(in.duty.percent()) + " % (" + (in.duty_source.empty() ? "given" : in.duty_source) + ")"});
   c.average_at_transmitter = after_duty * c.on_air.value;
   c.steps.push_back({"time window", c.average_at_transmitter,
-                     "× " + num(c.on_air.percent()) + " % worst-case on-air share of any " + num(window.value() / 60.0) +
+                     "× " + significant(c.on_air.percent()) + " % worst-case on-air share of any " + significant(window.value() / 60.0) +
                          " min window (" + c.pattern + ")"});
   c.average_at_antenna = c.average_at_transmitter;
   if (in.line) {
@@ -44,16 +39,16 @@ PowerChain power_chain(const ChainInput& in, units::Time window) {
       c.notes.push_back(c.line->note);
     }
     c.steps.push_back({"feed line", c.average_at_antenna,
-                       "− " + num(c.line->total_loss_db, 3) + " dB (" + in.line->line.name + ", " +
-                           num(in.line->length.value()) + " m: matched " + num(c.line->matched_loss_db, 3) +
-                           " dB + mismatch " + num(c.line->mismatch_loss_db, 3) + " dB at SWR " +
-                           num(c.line->swr_load, 3) + ")"});
+                       "− " + significant(c.line->total_loss_db, 3) + " dB (" + in.line->line.name + ", " +
+                           significant(in.line->length.value()) + " m: matched " + significant(c.line->matched_loss_db, 3) +
+                           " dB + mismatch " + significant(c.line->mismatch_loss_db, 3) + " dB at SWR " +
+                           significant(c.line->swr_load, 3) + ")"});
   }
   c.eirp = eirp(c.average_at_antenna, in.gain);
   c.erp = erp(c.average_at_antenna, in.gain);
   c.steps.push_back({"antenna", c.eirp,
-                     "EIRP = P × " + num(in.gain.ratio) + " (" + num(in.gain.dbi(), 3) + " dBi); ERP = EIRP/1.64 = " +
-                         num(c.erp.value()) + " W"});
+                     "EIRP = P × " + significant(in.gain.ratio) + " (" + significant(in.gain.dbi(), 3) + " dBi); ERP = EIRP/1.64 = " +
+                         significant(c.erp.value()) + " W"});
   return c;
 }
 

@@ -5,6 +5,7 @@
 #include <sstream>
 #include <stdexcept>
 
+#include "core/number_text.hpp"
 #include "core/constants.hpp"
 #include "core/error.hpp"
 #include "em/builders.hpp"
@@ -12,12 +13,6 @@
 namespace standoff::station {
 
 namespace {
-std::string num(double v, int precision = 4) {
-  std::ostringstream o;
-  o.precision(precision);
-  o << v;
-  return o.str();
-}
 // A straight wire from `a` to `b` fed at fraction `feed` along it (sloping and off-centre dipoles).
 em::Model straight_wire(double f_hz, const Eigen::Vector3d& a, const Eigen::Vector3d& b, double feed,
                         const em::Conductor& c, const em::Ground& ground, const std::string& name) {
@@ -121,7 +116,7 @@ em::Model antenna_model(const Antenna& a, double f_hz, const em::Ground& ground,
     case AntennaKind::yagi: {
       const em::YagiSpec spec = em::default_yagi(*a.band_centre_hz, *a.elements);
       notes.push_back("Yagi element lengths and spacings scaled from the design frequency " +
-                      num(*a.band_centre_hz / 1e6) + " MHz (common practice)");
+                      significant(*a.band_centre_hz / 1e6) + " MHz (common practice)");
       return em::yagi(f_hz, *a.elements, spec, at, wire, ground);
     }
     default: break;

@@ -9,6 +9,7 @@
 #include <set>
 #include <sstream>
 
+#include "core/number_text.hpp"
 #include "core/constants.hpp"
 #include "em/fields.hpp"
 #include "power/power_tables_toml.hpp"
@@ -23,12 +24,6 @@ namespace {
 constexpr double kAttachRadius_m = 2.0;  // a support within this plan distance of a wire end holds it
 constexpr double kGridSpacing_m = 0.5;   // zone grids as `evaluate` (EvaluationOptions default)
 
-std::string num(double v, int precision = 4) {
-  std::ostringstream o;
-  o.precision(precision);
-  o << v;
-  return o.str();
-}
 
 exposure::PlanPoint centroid(const exposure::Polygon& p) {
   double a = 0, cx = 0, cy = 0;
@@ -223,7 +218,7 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
       s.supports.push_back(sp);
     }
     pi.notes.push_back("no support of the antenna found in the station file (none within 2 m of a wire end): " +
-                       std::to_string(at.size()) + " mast(s) of " + num(top) + " m assumed at its ends for the "
+                       std::to_string(at.size()) + " mast(s) of " + significant(top) + " m assumed at its ends for the "
                        "power-line checks");
   } else {
     std::string names;

@@ -10,6 +10,7 @@
 
 #include <fmt/format.h>
 
+#include "core/number_text.hpp"
 #include "core/constants.hpp"
 #include "core/suggest.hpp"
 #include "em/builders.hpp"
@@ -29,12 +30,6 @@ namespace {
 
 constexpr double kEpaFactor = 2.56;  // EPA ground-reflection factor 1.6², FCC OET Bulletin 65 Eq. 7
 
-std::string num(double v, int precision = 4) {
-  std::ostringstream o;
-  o.precision(precision);
-  o << v;
-  return o.str();
-}
 
 template <class T>
 std::size_t index_of(const std::vector<T>& v, const T* p) {
@@ -110,8 +105,8 @@ double max_extent(const em::Model& m) {
 std::complex<double> line_side_impedance(const Antenna& a, std::complex<double> z, std::vector<std::string>& notes) {
   if (a.kind != AntennaKind::end_fed_half_wave) return z;
   const double n = a.matching_ratio.value_or(49.0);
-  notes.push_back("end-fed matching unit " + num(n) + ":1" + (a.matching_ratio ? "" : " assumed (not stated)") +
-                  ": the line sees the wire's feed impedance / " + num(n) +
+  notes.push_back("end-fed matching unit " + significant(n) + ":1" + (a.matching_ratio ? "" : " assumed (not stated)") +
+                  ": the line sees the wire's feed impedance / " + significant(n) +
                   "; the unit's own loss is not counted (more power reaches the wire)");
   return z / n;
 }
@@ -152,8 +147,8 @@ void add_unzoned(const Station& st, exposure::EvaluationInput& in, std::vector<s
     ++n;
     const auto [lo, hi] = geometry::bounds(part.outer);
     const std::string m2 = fmt::format("{:.0f}", std::ceil(a - 1e-9));  // rounded up: at least this much
-    const std::string where = "x " + num(lo.x_m, 3) + " to " + num(hi.x_m, 3) + " m, y " + num(lo.y_m, 3) + " to " +
-                              num(hi.y_m, 3) + " m";
+    const std::string where = "x " + significant(lo.x_m, 3) + " to " + significant(hi.x_m, 3) + " m, y " + significant(lo.y_m, 3) + " to " +
+                              significant(hi.y_m, 3) + " m";
     if (st.site.default_tier) {
       const std::string name = "unzoned part " + std::to_string(n);
       in.zones.push_back({name, *st.site.default_tier, part.outer, {0.0}, part.holes});
@@ -339,7 +334,7 @@ Built build(const Station& st, const BuildOptions& options) {
         } catch (const InputError& e) {
           const std::string key = antenna_key_for(ant, e);
           const Where wk = where_in(st, "antenna", index_of(st.antennas, &ant), ant.line, key);
-          throw InputError(wk, "the antenna cannot be modelled at " + num(f_hz / 1e6) + " MHz: " + e.what());
+          throw InputError(wk, "the antenna cannot be modelled at " + significant(f_hz / 1e6) + " MHz: " + e.what());
         }
         it = solved.emplace(key, std::move(s)).first;
       }
@@ -407,8 +402,8 @@ Built build(const Station& st, const BuildOptions& options) {
     for (const auto& s : chain.steps) src.chain.push_back({s.name, s.power.value(), s.detail});
     src.average_power_w = p;
     if (std::abs(p_c - p_u) > 1e-12 * p)
-      src.notes.push_back("average power " + num(other.average_at_antenna.value()) + " W over the " +
-                          num(other.window.value() / 60.0) + " min window of the other tier (ratios use each tier's own window)");
+      src.notes.push_back("average power " + significant(other.average_at_antenna.value()) + " W over the " +
+                          significant(other.window.value() / 60.0) + " min window of the other tier (ratios use each tier's own window)");
     if (!chain.evaluated)
       for (const auto& n : chain.notes) src.notes.push_back(n);
 
@@ -421,7 +416,7 @@ Built build(const Station& st, const BuildOptions& options) {
       src.field = aperture_source(phase_centre, exposure::aperture_regions(ap, units::watts(p), op.frequency), p);
     } else {
       src.field = point_source(phase_centre, p, gain, lambda / (2.0 * constants::pi));
-      src.notes.push_back("points closer than λ/2π = " + num(lambda / (2.0 * constants::pi), 3) +
+      src.notes.push_back("points closer than λ/2π = " + significant(lambda / (2.0 * constants::pi), 3) +
                           " m to the antenna are not evaluated (reactive near field)");
     }
 
