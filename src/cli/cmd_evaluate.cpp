@@ -190,14 +190,7 @@ report::LinesSection lines_section(const siting::LinesReport& lr) {
 
 // Progress on a terminal only: \r-updated percentage on stderr.
 std::function<void(double)> progress_for(std::ostream& err, bool json) {
-  if (json || &err != &std::cerr || !isatty(STDERR_FILENO)) return {};
-  auto last = std::make_shared<int>(-1);
-  return [&err, last](double f) {
-    const int pct = static_cast<int>(std::floor(f * 100.0));
-    if (pct == *last) return;
-    *last = pct;
-    err << "\rstandoff: evaluating " << pct << " %" << (pct >= 100 ? "\n" : "") << std::flush;
-  };
+  return terminal_progress(err, json, [](int pct) { return "evaluating " + std::to_string(pct) + " %"; });
 }
 
 // `evaluate --place`: the default placement search (first wire antenna, 1 m, every 15°).

@@ -2,6 +2,7 @@
 // [--top N] [--line CLASS] [--json] [--out DIR] [--threads N]`: where on the site one wire antenna
 // permits the most transmitter power (issue 10). Exit 0 when the best candidate passes every
 // power-line check, 1 when none does.
+#include <algorithm>
 #include <unistd.h>
 
 #include <cmath>
@@ -65,16 +66,21 @@ station::PlaceOptions place_options(const PlaceCliOptions& c) {
 
 // Progress on a terminal only: a bar on stderr (not with --json, not when piped).
 std::function<void(double)> place_progress(std::ostream& err, bool json) {
+  return terminal_progress(err, json, [](int pct) {
+    const auto n = static_cast<std::size_t>(pct / 5);
+    return "placing [" + std::string(n, '#') + std::string(20 - n, ' ') + "] " + std::to_string(pct) + " %";
+  });
+}
+
+// One progress line on a terminal's stderr, redrawn with \r when the whole percentage changes.
+std::function<void(double)> terminal_progress(std::ostream& err, bool json, std::function<std::string(int)> line) {
   if (json || &err != &std::cerr || !isatty(STDERR_FILENO)) return {};
   auto last = std::make_shared<int>(-1);
-  return [&err, last](double f) {
-    const int pct = static_cast<int>(std::floor(f * 100.0));
+  return [&err, last, line = std::move(line)](double f) {
+    const int pct = std::clamp(static_cast<int>(std::floor(f * 100.0)), 0, 100);
     if (pct == *last) return;
     *last = pct;
-    const int n = pct / 5;
-    err << "\rstandoff: placing [" << std::string(static_cast<std::size_t>(n), '#')
-        << std::string(static_cast<std::size_t>(20 - n), ' ') << "] " << pct << " %" << (pct >= 100 ? "\n" : "")
-        << std::flush;
+    err << "\rstandoff: " << line(pct) << (pct >= 100 ? "\n" : "") << std::flush;
   };
 }
 

@@ -4,6 +4,7 @@
 
 #include <functional>
 #include <iosfwd>
+#include <string>
 #include <vector>
 
 #include <CLI/CLI.hpp>
@@ -23,6 +24,10 @@ using Commands = std::vector<Command>;
 
 // Where a command-line option's text came from, for InputError messages.
 inline Where option_where(const std::string& option) { return Where{"command line", 0, option}; }
+
+// A progress reporter for long runs: one line on stderr, only when stderr is a terminal and the
+// output is not JSON (else empty); `line(pct)` gives the text for a whole percentage.
+std::function<void(double)> terminal_progress(std::ostream& err, bool json, std::function<std::string(int)> line);
 
 void add_limits(CLI::App& root, Commands& commands);
 void add_distance(CLI::App& root, Commands& commands);
