@@ -22,6 +22,7 @@
 #include "report/place_report.hpp"
 #include "core/bounds.hpp"
 #include "core/parallel.hpp"
+#include "core/number_text.hpp"
 #include "core/quantity_parse.hpp"
 #include "exposure/evaluate.hpp"
 #include "exposure/remedies.hpp"
@@ -240,9 +241,10 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
     const Where w = big < st.site.zones.size()
                         ? Where{file_for_messages, st.site.zones[big].line, "zone[" + std::to_string(big) + "]"}
                         : Where{file_for_messages, 0, "zone"};
-    throw InputError(w, fmt::format("the zones need about {:.3g} grid cells at {:.3g} m spacing ({:.3g} in this one), "
-                                    "more than the cap of {:.3g} (raise it with --max-grid-cells, or split the zones)",
-                                    cells, eo.grid_spacing_m, per_zone[big], o.max_grid_cells));
+    throw InputError(w, fmt::format("the zones need about {} grid cells at {} m spacing ({} in this one), "
+                                    "more than the cap of {} (raise it with --max-grid-cells, or split the zones)",
+                                    significant(cells, 3), significant(eo.grid_spacing_m, 3),
+                                    significant(per_zone[big], 3), significant(o.max_grid_cells, 3)));
   }
   exposure::StationEvaluation ev = exposure::evaluate(built.input, eo);
 
@@ -328,7 +330,7 @@ void common_options(CLI::App* sub, const std::shared_ptr<EvalOptions>& o) {
       ->check(CLI::Range(1u, 256u));
   sub->add_option("--max-unknowns", o->max_unknowns, "Cap on moment-method unknowns per antenna (default 4000; 16 N² bytes)")
       ->check(CLI::Range(std::size_t{1}, std::size_t{20000}));
-  sub->add_option("--max-grid-cells", o->max_grid_cells, "Cap on zone grid cells over all zones and floors (default 4e6)")
+  sub->add_option("--max-grid-cells", o->max_grid_cells, "Cap on zone grid cells over all zones and floors (default 10000000)")
       ->check(CLI::Range(1.0, 1e9));
 }
 

@@ -9,10 +9,10 @@
 
 namespace standoff::exposure {
 
-// Default cap on grid cells over all zones and floors (each cell holds body-line samples for every
-// source; about 4 million cells is the most a 2-core machine evaluates in minutes). Raised with
-// `--max-grid-cells`.
-inline constexpr double kDefaultMaxGridCells = 4e6;
+// Default cap on grid cells over all zones and floors: 10 million, about 2.5 km² at 0.5 m. The
+// coarse-first grids evaluate the demo plus a 1 km² zone (4 million cells) in about 6 s of CPU and
+// 480 MB (docs/performance.md), so the cap keeps memory near 1.2 GB. Raised with `--max-grid-cells`.
+inline constexpr double kDefaultMaxGridCells = 1e7;
 
 // Number of grid cells the evaluation would allocate: Σ over zones and floors of nx·ny of the
 // zone's bounding box at `spacing_m` (an upper bound of the cells inside the zone), in double
