@@ -45,9 +45,35 @@ struct Remedies {
       if (all[k].subject != subject || all[k].text.empty()) continue;
       used[k] = true;
       const std::string t = strip_stop(all[k].text);
-      if (("; " + out + "; ").find("; " + t + "; ") == std::string::npos) out += (out.empty() ? "" : "; ") + t;
+      if (("; " + out + "; ").find("; " + t + "; ") != std::string::npos) continue;
+      if (!merge_named(out, t)) out += (out.empty() ? "" : "; ") + t;
     }
     return out;
+  }
+
+  // Remedies that differ only by the quoted name at their end ("… further from \"A\"" and "… further
+  // from \"B\"") become one clause naming both: "… further from \"A\" and \"B\"".
+  static bool merge_named(std::string& out, const std::string& t) {
+    const auto split = [](const std::string& x, std::string& head, std::string& name) {
+      if (x.size() < 3 || x.back() != '"') return false;
+      const auto open = x.rfind('"', x.size() - 2);
+      if (open == std::string::npos) return false;
+      head = x.substr(0, open);
+      name = x.substr(open);
+      return true;
+    };
+    std::string th, tn;
+    if (!split(t, th, tn)) return false;
+    const auto start = out.rfind("; ");
+    const std::size_t from = start == std::string::npos ? 0 : start + 2;
+    const std::string last = out.substr(from);
+    // The last clause is "<head>\"A\"" or "<head>\"A\", \"B\"" or "<head>\"A\" and \"B\"".
+    if (last.size() <= th.size() || last.compare(0, th.size(), th) != 0 || last[th.size()] != '"') return false;
+    std::string names = last.substr(th.size());
+    const auto and_at = names.rfind("\" and \"");
+    if (and_at != std::string::npos) names = names.substr(0, and_at + 1) + ", " + names.substr(and_at + 6);
+    out = out.substr(0, from) + th + names + " and " + tn;
+    return true;
   }
 };
 
@@ -119,8 +145,8 @@ std::vector<Finding> findings(const Record& r) {
     if (op->verdict == exposure::Verdict::exceeds && op->evaluated_anywhere) {
       const auto& w = op->worst;
       std::string s = fmt::format(
-          "{}: exposure reaches {} of the {} limit in the {} at {}; keep the informed household (controlled tier) "
-          "at least {} and everyone else at least {} from the antenna, or reduce the PEP to {} or less",
+          "{}: {} of the {} exposure limit in the {} at {}; keep the household (controlled tier) "
+          "at least {} and others at least {} away, or use at most {} PEP",
           op->name, fmtx::percent_up(w.ratio), tier_name(w.tier), w.zone, fmtx::where(w.at),
           fmtx::length_up(keep_away(*op, limits::Tier::controlled), u),
           fmtx::length_up(keep_away(*op, limits::Tier::uncontrolled), u), fmtx::permitted_power(op->permitted_pep_w));
@@ -149,16 +175,20 @@ std::vector<Finding> findings(const Record& r) {
 
   for (const auto& g : failed_groups(r)) {
     std::string s = capitalised(g.rule) + ": the " + g.subject;
-    if (g.actual_m) s += " can come within " + fmtx::length_down(g.actual_m, u);
+    // Nothing left between them (0.0 m once rounded down) is said plainly: it can reach the line.
+    const bool touches = g.actual_m && *g.actual_m < 0.05;
+    if (touches) s += g.lines.empty() ? " is within reach (0 m)" : " can reach " + join_and(the(g.lines));
+    else if (g.actual_m) s += " can come within " + fmtx::length_down(g.actual_m, u);
     else s += " could not be evaluated";
-    if (!g.lines.empty()) s += " of " + join_and(the(g.lines));
+    if (!g.lines.empty() && !touches) s += " of " + join_and(the(g.lines));
     if (g.required_m) s += " where at least " + fmtx::length_up(g.required_m, u) + " is required";
+    std::string brief = s;
     s += " (" + g.source + ")";
     // A remedy computed for this rule and subject ("<subject> / <rule>"), else one for the subject.
     std::string computed = remedies.take(g.subject + " / " + g.rule);
     if (computed.empty()) computed = remedies.take(g.subject);
-    s += "; " + (computed.empty() ? generic_remedy(g.rule) : strip_stop(computed));
-    out.push_back({g.subject, s + ".", false});
+    const std::string remedy = "; " + (computed.empty() ? generic_remedy(g.rule) : strip_stop(computed)) + ".";
+    out.push_back({g.subject, s + remedy, false, brief + remedy});
   }
   for (std::size_t k = 0; k < r.remedies.size(); ++k) {
     if (remedies.used[k] || r.remedies[k].text.empty()) continue;
@@ -216,7 +246,10 @@ std::string headline_sentence(const Record& r) {
     const auto& g = groups.front();
     std::string s = fmt::format("the {} fails the {} check", g.subject, g.rule);
     if (!g.lines.empty()) s += " against " + join_and(the(g.lines));
-    if (g.actual_m && g.required_m)
+    if (g.actual_m && g.required_m && *g.actual_m < 0.05 && !g.lines.empty())
+      s += fmt::format(", reaching {} where {} is required", g.lines.size() > 1 ? "them" : "it",
+                       fmtx::length_up(g.required_m, r.units));
+    else if (g.actual_m && g.required_m)
       s += fmt::format(", coming within {} where {} is required", fmtx::length_down(g.actual_m, r.units),
                        fmtx::length_up(g.required_m, r.units));
     const std::size_t more = installation_failures(r) - g.count;

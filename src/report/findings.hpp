@@ -18,6 +18,7 @@ struct Finding {
   std::string subject;   // operation, group, support or span
   std::string sentence;  // the whole sentence, ending with a full stop
   bool exposure = true;  // false: an installation finding
+  std::string brief = {};  // the terminal summary's form: the sentence without its source (empty: the sentence)
 };
 
 // Every finding, exposure first (worst ratio first), then installation (by rule). Empty when

@@ -111,8 +111,10 @@ table.all-checks td, table.all-checks th { padding: .1rem .3rem; }
   table.ops { font-size: 7.5pt; }
   figure svg { max-height: 200mm; }
   figure.chart svg { max-height: 52mm; }
-  table.all-checks { font-size: 6.5pt; }
-  table.all-checks td { white-space: nowrap; }
+  /* The appendix lists every check (71 in the demo): one printed page, rows one text line high. */
+  table.all-checks { font-size: 6.5pt; line-height: 1.15; margin: .2rem 0 .3rem; }
+  table.all-checks td { white-space: nowrap; padding: 0 .3rem; }
+  table.all-checks .verdict { border-width: 1px; padding: 0 .25rem; line-height: 1.1; }
   #methods table, #methods ul { font-size: 7.5pt; }
   .op .note { font-size: 7.5pt; margin: .1rem 0; }
   section.answer { break-after: page; page-break-after: always; }

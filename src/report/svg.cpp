@@ -563,8 +563,16 @@ std::string site_map_svg(const Record& r, bool standalone, bool compact) {
 
   // Labels last, placed so that they do not overlap each other or the markers.
   s += "<g id=\"" + pre + "labels\">\n";
-  auto put = [&](const std::string& text, double font, const std::vector<LabelPlacer::Candidate>& cands, const char* colour,
+  auto put = [&](const std::string& text, double font, const std::vector<LabelPlacer::Candidate>& all, const char* colour,
                  const char* extra = "", bool required = true) {
+    // Only the candidates whose box stays on the drawing (a long label beside the left edge would
+    // be clipped); all of them when none does.
+    std::vector<LabelPlacer::Candidate> cands;
+    for (const auto& c : all) {
+      const LabelBox b = LabelPlacer::box_of(text, font, c);
+      if (b.x0 >= 0.0 && b.x1 <= width) cands.push_back(c);
+    }
+    if (cands.empty()) cands = all;
     const std::size_t k = placer.place(text, font, cands, required);
     if (k == std::string::npos) return;  // an optional label with no free place is left out
     std::string e = fmt::format(" font-size=\"{}\"{}", svg_num(font), extra);

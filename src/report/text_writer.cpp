@@ -65,13 +65,12 @@ void write_summary(const Record& r, std::ostream& out, const TextOptions& option
       << paint_headline(installation_headline(r), installation_verdict(r), options.colour) << "\n";
   // The findings say what the headline sentence says, one by one; without findings, the headline.
   const auto fs = findings(r);
-  if (fs.empty()) out << fmtx::wrap(headline_sentence(r), w, "", "");
-  out << "\n";
+  if (fs.empty()) out << fmtx::wrap(headline_sentence(r), w, "", "") << "\n";
   if (!fs.empty()) {
     out << "Findings and remedies\n";
     for (std::size_t k = 0; k < fs.size(); ++k) {
       const std::string num = std::to_string(k + 1) + ". ";
-      out << fmtx::wrap(fs[k].sentence, w, "  " + num, std::string(2 + num.size(), ' '));
+      out << fmtx::wrap(fs[k].brief.empty() ? fs[k].sentence : fs[k].brief, w, "  " + num, std::string(2 + num.size(), ' '));
     }
     out << "\n";
   }
@@ -105,8 +104,8 @@ void write_summary(const Record& r, std::ostream& out, const TextOptions& option
     for (const auto& c : r.lines->checks) {
       if (std::find(rules.begin(), rules.end(), c.rule) == rules.end()) rules.push_back(c.rule);
     }
-    out << "Installation checks near power lines\n";
-    std::string passes;
+    out << fmtx::wrap("Installation checks near power lines (sources in the report and with --verbose)", w, "", "");
+    std::string passes, fails;  // "rule count, …": the failures are named in the findings above
     for (const auto& rule : rules) {
       std::size_t pass = 0, fail = 0;
       std::vector<std::pair<std::string, std::string>> failed;  // subject, lines
@@ -127,20 +126,25 @@ void write_summary(const Record& r, std::ostream& out, const TextOptions& option
       if (fail > 0) {
         std::string names;
         for (const auto& f : failed) names += (names.empty() ? "" : "; ") + f.first + f.second;
-        out << fmtx::wrap(paint("FAIL", "fail", options.colour) + " " + rule + " (" + std::to_string(fail) + "): " + names,
-                          w, "  ", "    ");
+        // Named here only when the findings do not name them (they always do; kept for safety).
+        fails += (fails.empty() ? "" : ", ") + rule + " " + std::to_string(fail) + (fs.empty() ? " (" + names + ")" : "");
       }
       if (pass > 0) passes += (passes.empty() ? "" : ", ") + rule + " " + std::to_string(pass);
     }
-    if (!passes.empty()) out << fmtx::wrap(paint("PASS", "pass", options.colour) + " " + passes, w, "  ", "    ");
+    std::string verdicts;
+    if (!fails.empty()) verdicts = paint("FAIL", "fail", options.colour) + " " + fails + (fs.empty() ? "" : " (see the findings)");
+    if (!passes.empty()) verdicts += (verdicts.empty() ? "" : "; ") + paint("PASS", "pass", options.colour) + " " + passes;
+    out << fmtx::wrap(verdicts, w, "  ", "    ");
     out << "\n";
   }
 
   const auto cautions = all_cautions(r);
   const std::size_t shown = std::min<std::size_t>(cautions.size(), 1);
-  out << fmtx::wrap("Cautions (the gravest; all " + std::to_string(cautions.size()) + " in the report and with --verbose)",
-                    w, "", "");
-  for (std::size_t k = 0; k < shown; ++k) out << fmtx::wrap(cautions[k], w, "  ! ", "    ");
+  // The gravest caution on the heading's line; all of them in the report and with --verbose.
+  const std::string heading =
+      "Gravest caution (of " + std::to_string(cautions.size()) + "; all with --verbose)";
+  if (shown == 0) out << fmtx::wrap(heading, w, "", "");
+  for (std::size_t k = 0; k < shown; ++k) out << fmtx::wrap(heading + ": " + cautions[k], w, "", "  ");
 }
 
 }  // namespace

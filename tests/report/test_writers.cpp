@@ -399,6 +399,32 @@ TEST_CASE("one sentence per finding: what, where, how much, remedy", "[report][f
   CHECK(findings(r)[2].sentence.find("3.1 m (10.1 ft)") != std::string::npos);  // 3.05 m, rounded up in each unit
 }
 
+TEST_CASE("remedies differing only by the power line merge; nothing left between them is said plainly",
+          "[report][findings]") {
+  auto r = synthetic_record();
+  r.units = UnitSystem::metric;
+  // The failed check against L1, and the same rule and subject against L2, with nothing left between them.
+  r.lines->checks[1].actual_m = 0.0;
+  auto twin = r.lines->checks[1];
+  twin.line = "L2";
+  r.lines->checks.push_back(twin);
+  r.remedies = {{"wire / standing clearance", "move it 3.05 m further from \"L1\"."},
+                {"wire / standing clearance", "move it 3.05 m further from \"L2\"."}};
+  const auto fs = findings(r);
+  REQUIRE(fs.size() == 3);
+  const std::string& inst = fs[2].sentence;
+  CHECK(inst.find("Standing clearance: the wire can reach the L1 and the L2 where at least 3.1 m is required "
+                  "(NFPA 70 810.13); move it 3.05 m further from \"L1\" and \"L2\".") == 0);
+  CHECK(inst.find("0.0 m") == std::string::npos);
+  CHECK(fs[2].brief.find("(NFPA 70 810.13)") == std::string::npos);  // the summary's form leaves the source out
+  CHECK(headline_sentence(r).find("reaching them where 3.1 m is required") != std::string::npos);
+  // Three lines: "A", "B" and "C"; a remedy worded otherwise stays a clause of its own.
+  r.remedies.push_back({"wire / standing clearance", "move it 3.05 m further from \"L3\"."});
+  r.remedies.push_back({"wire / standing clearance", "or lower it 1 m from \"L3\"."});
+  CHECK(findings(r)[2].sentence.find("further from \"L1\", \"L2\" and \"L3\"; or lower it 1 m from \"L3\".") !=
+        std::string::npos);
+}
+
 TEST_CASE("the terminal summary folds to the width and --verbose keeps the detail", "[report][text]") {
   const auto r = synthetic_record();
   for (const std::size_t width : {100u, 60u, 40u}) {
