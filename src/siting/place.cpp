@@ -438,7 +438,9 @@ double routed_feed_length_m(const PlaceSetup& s, double x, double y) {
 }
 
 double required_map_extent(const PlaceSetup& s) {
-  const auto [lo, hi] = exposure::bounds(s.region);
+  // Not a structured binding: clang 14 (the fuzz build) refuses lambdas that capture one.
+  const auto box = exposure::bounds(s.region);
+  const exposure::PlanPoint lo = box.first, hi = box.second;
   double reach = 0.0;
   auto far_corner = [&](double px, double py) {
     const double dx = std::max(std::abs(px - lo.x_m), std::abs(px - hi.x_m));
