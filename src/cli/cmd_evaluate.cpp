@@ -345,17 +345,7 @@ struct FieldOptions {
 };
 
 exposure::SitePoint parse_at(const std::string& text) {
-  std::vector<std::string> parts;
-  std::string cur;
-  for (char c : text) {
-    if (c == ',') {
-      parts.push_back(cur);
-      cur.clear();
-    } else {
-      cur += c;
-    }
-  }
-  parts.push_back(cur);
+  const std::vector<std::string> parts = split_commas(text);
   if (parts.size() != 3)
     throw InputError(option_where("--at"), "expected X,Y,Z with units, e.g. \"12m,-4m,1.5m\", got \"" + text + "\"");
   double v[3];

@@ -19,24 +19,6 @@
 
 namespace standoff::cli {
 
-namespace {
-
-std::vector<std::string> split_commas(const std::string& text) {
-  std::vector<std::string> parts;
-  std::string cur;
-  for (char c : text) {
-    if (c == ',') {
-      parts.push_back(cur);
-      cur.clear();
-    } else {
-      cur += c;
-    }
-  }
-  parts.push_back(cur);
-  return parts;
-}
-
-}  // namespace
 
 station::PlaceOptions place_options(const PlaceCliOptions& c) {
   station::PlaceOptions o;

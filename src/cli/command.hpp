@@ -29,6 +29,9 @@ inline Where option_where(const std::string& option) { return Where{"command lin
 // output is not JSON (else empty); `line(pct)` gives the text for a whole percentage.
 std::function<void(double)> terminal_progress(std::ostream& err, bool json, std::function<std::string(int)> line);
 
+// An option's comma-separated parts, empty parts kept ("a,,b" → "a", "", "b").
+std::vector<std::string> split_commas(const std::string& text);
+
 void add_limits(CLI::App& root, Commands& commands);
 void add_distance(CLI::App& root, Commands& commands);
 void add_wire(CLI::App& root, Commands& commands);

@@ -66,4 +66,19 @@ int run(const std::vector<std::string>& args, std::ostream& out, std::ostream& e
   return kBadInput;
 }
 
+std::vector<std::string> split_commas(const std::string& text) {
+  std::vector<std::string> parts;
+  std::string cur;
+  for (char c : text) {
+    if (c == ',') {
+      parts.push_back(cur);
+      cur.clear();
+    } else {
+      cur += c;
+    }
+  }
+  parts.push_back(cur);
+  return parts;
+}
+
 }  // namespace standoff::cli
