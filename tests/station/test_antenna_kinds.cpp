@@ -3,6 +3,8 @@
 // modelled by the same em builders as `standoff wire`, and checked against outside results.
 #include <catch2/catch.hpp>
 
+#include "lot_station.hpp"
+
 #include <cmath>
 #include <complex>
 #include <string>
@@ -22,18 +24,7 @@ namespace {
 // A station with one antenna (the [[antenna]] body given) and one operation at `freq`.
 std::string station_with(const std::string& antenna, const std::string& freq = "14.2 MHz",
                          const std::string& extra = "") {
-  return R"([station]
-name = "kinds"
-[site]
-boundary = [["-40 m", "-40 m"], ["40 m", "-40 m"], ["40 m", "40 m"], ["-40 m", "40 m"]]
-[[zone]]
-name = "lot"
-polygon = [["-40 m", "-40 m"], ["40 m", "-40 m"], ["40 m", "40 m"], ["-40 m", "40 m"]]
-tier = "uncontrolled"
-[[transmitter]]
-name = "rig"
-pep = "100 W"
-[[antenna]]
+  return standoff::test::lot_station_preamble("kinds") + R"([[antenna]]
 name = "a"
 )" + antenna + R"(
 [[operation]]

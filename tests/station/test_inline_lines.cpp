@@ -2,6 +2,8 @@
 // points, and user tables given with --tables DIR beside the built-in ones.
 #include <catch2/catch.hpp>
 
+#include "lot_station.hpp"
+
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -19,18 +21,7 @@ using Catch::Matchers::Contains;
 namespace {
 
 std::string station_with_line(const std::string& line_body) {
-  return R"([station]
-name = "lines"
-[site]
-boundary = [["-40 m", "-40 m"], ["40 m", "-40 m"], ["40 m", "40 m"], ["-40 m", "40 m"]]
-[[zone]]
-name = "lot"
-polygon = [["-40 m", "-40 m"], ["40 m", "-40 m"], ["40 m", "40 m"], ["-40 m", "40 m"]]
-tier = "uncontrolled"
-[[transmitter]]
-name = "rig"
-pep = "100 W"
-[[feed_line]]
+  return standoff::test::lot_station_preamble("lines") + R"([[feed_line]]
 name = "line"
 length = "30 m"
 )" + line_body + R"(
