@@ -22,9 +22,9 @@
 #include "exposure/exemption.hpp"
 #include "exposure/screening.hpp"
 #include "limits/limits.hpp"
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 #include "power/chain.hpp"
-#include "power/power_tables_toml.hpp"
+#include "io/power_tables_toml.hpp"
 #include "report/finite_check.hpp"
 
 namespace standoff::cli {

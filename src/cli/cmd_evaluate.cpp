@@ -28,16 +28,16 @@
 #include "exposure/remedies.hpp"
 #include "exposure/work_estimate.hpp"
 #include "report/finite_check.hpp"
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 #include "report/format.hpp"
 #include "report/record.hpp"
 #include "report/sha256.hpp"
 #include "report/writers.hpp"
 #include "siting/checks.hpp"
-#include "siting/clearances_toml.hpp"
-#include "station/installation.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "io/clearances_toml.hpp"
+#include "assemble/installation.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 namespace standoff::cli {
 
@@ -87,9 +87,9 @@ void check_out_dir(const std::string& dir) {
 }
 
 // Applies --tables DIR to the build options; the tables live as long as `holder`.
-void use_tables(const std::string& dir, station::UserTables& holder, station::BuildOptions& bo) {
+void use_tables(const std::string& dir, assemble::UserTables& holder, assemble::BuildOptions& bo) {
   if (dir.empty()) return;
-  holder = station::load_user_tables(dir);
+  holder = assemble::load_user_tables(dir);
   if (holder.feedlines) bo.user_feedlines = &*holder.feedlines;
   if (holder.duties) bo.user_duties = &*holder.duties;
 }
@@ -118,7 +118,7 @@ std::vector<report::PlanPoint> rpoly(const exposure::Polygon& poly) {
 std::string metres(double v) { return fmt::format("{:.4g} m", v); }
 
 // The site map: geometry of the station for the report's drawing.
-report::SiteMap site_map(const station::Station& st, const station::Built& built) {
+report::SiteMap site_map(const station::Station& st, const assemble::Built& built) {
   report::SiteMap m;
   m.boundary = rpoly(st.site.boundary);
   for (const auto& b : st.site.buildings) {
@@ -197,14 +197,14 @@ std::function<void(double)> progress_for(std::ostream& err, bool json) {
 // `evaluate --place`: the default placement search (first wire antenna, 1 m, every 15°).
 report::Record::Placement placement_for_report(const station::Station& st, std::optional<limits::Standard> standard,
                                                unsigned threads, std::ostream& err, bool json) {
-  station::PlaceOptions po;
+  assemble::PlaceOptions po;
   po.standard = standard;
   po.threads = threads;
   for (int k = 0; k < 24; ++k) po.azimuths_rad.push_back(k * 3.14159265358979323846 / 12.0);
-  station::PlaceInput in = station::place_input(st, po);
+  assemble::PlaceInput in = assemble::place_input(st, po);
   in.setup.progress = place_progress(err, json);
   siting::PlaceResult res = siting::place(in.setup);
-  station::apply_current_installation(st, in, res);
+  assemble::apply_current_installation(st, in, res);
   return {report::place_html_section(st, in, res), report::place_heatmap_svg(st, in, res, true)};
 }
 
@@ -221,12 +221,12 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   parallel::set_default_threads(o.threads);  // also the MoM set-up (0: all cores)
   const station::Station st = station::load_station(text, file_for_messages);
   if (out_bare) check_out_dir("reports/" + report::slug(st.name));
-  station::BuildOptions bo;
+  assemble::BuildOptions bo;
   bo.standard = standard;
   bo.max_unknowns = o.max_unknowns;
-  station::UserTables user_tables;
+  assemble::UserTables user_tables;
   use_tables(o.tables, user_tables, bo);
-  const station::Built built = station::build(st, bo);
+  const assemble::Built built = assemble::build(st, bo);
   const report::UnitSystem units = units_option(o.units, built.standard);  // checked before the long run
 
   exposure::EvaluationOptions eo;
@@ -259,7 +259,7 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
   rec.units = units;
   rec.map = site_map(st, built);
   if (!st.installation.empty())
-    rec.lines = lines_section(station::check_installation(st));
+    rec.lines = lines_section(assemble::check_installation(st));
   for (const auto& z : st.site.zones)
     if (z.kind == station::ZoneKind::keep_out)
       rec.cautions.push_back("Keep-out area \"" + z.name + "\"" + (z.barrier.empty() ? "" : " (" + z.barrier + ")") +
@@ -271,7 +271,7 @@ int run_evaluation(const EvalOptions& o, std::string_view text, const std::strin
     (u.rfind("Not evaluated", 0) == 0 ? rec.cautions : rec.assumptions).push_back(u + ".");
   }
   {
-    const em::Ground g = station::em_ground(st.site.ground);
+    const em::Ground g = assemble::em_ground(st.site.ground);
     rec.assumptions.push_back(g.kind == em::GroundKind::real
                                   ? fmt::format("Ground: {} (εr {:g}, σ {:g} S/m, tables/grounds.toml).", st.site.ground,
                                                 g.eps_r, g.sigma_s_per_m)
@@ -360,12 +360,12 @@ int run_field(const FieldOptions& o, std::ostream& out) {
   const exposure::SitePoint at = parse_at(o.at);
   const std::string text = read_file(o.station_file);
   const station::Station st = station::load_station(text, o.station_file);
-  station::BuildOptions bo;
+  assemble::BuildOptions bo;
   bo.standard = standard_option(o.standard);
   if (!o.operation.empty()) bo.only_operation = o.operation;
-  station::UserTables user_tables;
+  assemble::UserTables user_tables;
   use_tables(o.tables, user_tables, bo);
-  const station::Built built = station::build(st, bo);
+  const assemble::Built built = assemble::build(st, bo);
 
   nlohmann::json j;
   j["at"] = {{"x_m", at.x_m}, {"y_m", at.y_m}, {"z_m", at.z_m}};

@@ -13,7 +13,7 @@
 #include "cli/command.hpp"
 #include "core/quantity_parse.hpp"
 #include "limits/limits.hpp"
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 
 namespace standoff::cli {
 namespace {

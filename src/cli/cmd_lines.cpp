@@ -9,9 +9,9 @@
 #include "report/finite_check.hpp"
 #include "cli/command.hpp"
 #include "siting/checks.hpp"
-#include "siting/siting_toml.hpp"
-#include "station/installation.hpp"
-#include "station/station_toml.hpp"
+#include "io/siting_toml.hpp"
+#include "assemble/installation.hpp"
+#include "io/station_toml.hpp"
 
 namespace standoff::cli {
 
@@ -28,7 +28,7 @@ void add_lines(CLI::App& root, Commands& commands) {
   sub->add_flag("--json", o->json, "Print the checks as JSON");
   commands.push_back(Command{sub, [o](std::ostream& out, std::ostream&) {
     const station::Station st = station::load_station_file(o->station);
-    const auto report = station::check_installation(st);
+    const auto report = assemble::check_installation(st);
     if (o->json) {
       const auto j = siting::lines_report_json(report);
       standoff::report::check_finite(j, "lines result");  // no NaN or inf reaches the output (issue 14)

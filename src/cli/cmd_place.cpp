@@ -15,13 +15,13 @@
 #include "core/quantity_parse.hpp"
 #include "report/place_report.hpp"
 #include "report/writers.hpp"
-#include "station/station_toml.hpp"
+#include "io/station_toml.hpp"
 
 namespace standoff::cli {
 
 
-station::PlaceOptions place_options(const PlaceCliOptions& c) {
-  station::PlaceOptions o;
+assemble::PlaceOptions place_options(const PlaceCliOptions& c) {
+  assemble::PlaceOptions o;
   if (!c.antenna.empty()) o.antenna = c.antenna;
   if (!c.step.empty()) {
     o.step_m = parse_length(c.step, option_where("--step")).value();
@@ -84,10 +84,10 @@ void add_place(CLI::App& root, Commands& commands) {
   commands.push_back(Command{sub, [o](std::ostream& out, std::ostream& err) {
     const auto opts = place_options(*o);
     const station::Station st = station::load_station_file(o->station);
-    station::PlaceInput in = station::place_input(st, opts);
+    assemble::PlaceInput in = assemble::place_input(st, opts);
     in.setup.progress = place_progress(err, o->json);
     siting::PlaceResult res = siting::place(in.setup);
-    station::apply_current_installation(st, in, res);
+    assemble::apply_current_installation(st, in, res);
     const nlohmann::json j = report::place_json(st, in, res);
     if (!o->out.empty())
       report::write_files_atomically(o->out, {{report::kPlaceJsonFile, j.dump(2) + "\n"},

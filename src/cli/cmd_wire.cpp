@@ -21,10 +21,10 @@
 #include "core/quantity_parse.hpp"
 #include "em/builders.hpp"
 #include "em/fields.hpp"
-#include "em/grounds_toml.hpp"
+#include "io/grounds_toml.hpp"
 #include "em/solve.hpp"
 #include "power/feedline.hpp"
-#include "power/power_tables_toml.hpp"
+#include "io/power_tables_toml.hpp"
 #include "report/finite_check.hpp"
 
 namespace standoff::cli {

@@ -5,7 +5,7 @@
 #include <iosfwd>
 #include <string>
 
-#include "station/placement.hpp"
+#include "assemble/placement.hpp"
 
 namespace standoff::cli {
 
@@ -23,7 +23,7 @@ struct PlaceCliOptions {
 };
 
 // Parses the option texts (units required); throws InputError naming the option.
-station::PlaceOptions place_options(const PlaceCliOptions& options);
+assemble::PlaceOptions place_options(const PlaceCliOptions& options);
 
 // Progress bar on stderr when it is a terminal and not --json; empty otherwise.
 std::function<void(double)> place_progress(std::ostream& err, bool json);

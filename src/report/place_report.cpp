@@ -86,7 +86,7 @@ std::string ramp(double t) {
 
 }  // namespace
 
-nlohmann::json place_json(const station::Station& st, const station::PlaceInput& in, const siting::PlaceResult& r) {
+nlohmann::json place_json(const station::Station& st, const assemble::PlaceInput& in, const siting::PlaceResult& r) {
   const auto& s = in.setup;
   nlohmann::json j;
   j["station"] = st.name;
@@ -127,7 +127,7 @@ nlohmann::json place_json(const station::Station& st, const station::PlaceInput&
   return j;
 }
 
-std::string place_text(const station::Station& st, const station::PlaceInput& in, const siting::PlaceResult& r) {
+std::string place_text(const station::Station& st, const assemble::PlaceInput& in, const siting::PlaceResult& r) {
   const auto& s = in.setup;
   std::ostringstream o;
   o << fmt::format("Placement search for \"{}\" on {} ({} positions, {} placements, step {:.3g} m)\n", s.antenna,
@@ -157,7 +157,7 @@ std::string place_text(const station::Station& st, const station::PlaceInput& in
   return o.str();
 }
 
-std::string place_heatmap_svg(const station::Station& st, const station::PlaceInput& in, const siting::PlaceResult& r,
+std::string place_heatmap_svg(const station::Station& st, const assemble::PlaceInput& in, const siting::PlaceResult& r,
                               bool standalone) {
   const auto& s = in.setup;
   auto [lo, hi] = exposure::bounds(st.site.boundary);
@@ -262,7 +262,7 @@ std::string place_heatmap_svg(const station::Station& st, const station::PlaceIn
   return o;
 }
 
-std::string place_html_section(const station::Station& st, const station::PlaceInput& in,
+std::string place_html_section(const station::Station& st, const assemble::PlaceInput& in,
                                const siting::PlaceResult& r) {
   std::string h = "<section id=\"placement\"><h2>" + xml_escape("Where to put \"" + in.setup.antenna + "\"") + "</h2>\n";
   h += "<p class=\"note\">" +

@@ -12,9 +12,9 @@
 #include "em/builders.hpp"
 #include "em/near_field.hpp"
 #include "exposure/evaluate.hpp"
-#include "limits/limits_toml.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "io/limits_toml.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 namespace {
 
@@ -25,7 +25,7 @@ void BM_DemoEvaluation(benchmark::State& state) {
   std::size_t points = 0;
   for (auto _ : state) {
     const auto st = standoff::station::load_station(standoff::station::demo_station_text(), "demo-station.toml");
-    const auto built = standoff::station::build(st);
+    const auto built = standoff::assemble::build(st);
     standoff::exposure::EvaluationOptions o;
     o.threads = threads;
     o.grid_spacing_m = static_cast<double>(state.range(1)) / 100.0;
@@ -48,7 +48,7 @@ void BM_DemoBuild(benchmark::State& state) {
   standoff::parallel::set_default_threads(static_cast<unsigned>(state.range(0)));
   const auto st = standoff::station::load_station(standoff::station::demo_station_text(), "demo-station.toml");
   for (auto _ : state) {
-    auto built = standoff::station::build(st);
+    auto built = standoff::assemble::build(st);
     benchmark::DoNotOptimize(built);
   }
   standoff::parallel::set_default_threads(0);

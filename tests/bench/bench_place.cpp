@@ -7,15 +7,15 @@
 #include <cmath>
 
 #include "siting/place.hpp"
-#include "station/placement.hpp"
-#include "station/station_toml.hpp"
+#include "assemble/placement.hpp"
+#include "io/station_toml.hpp"
 
 namespace {
 
 constexpr double kPi = 3.14159265358979323846;
 
-standoff::station::PlaceOptions demo_options(unsigned threads) {
-  standoff::station::PlaceOptions o;
+standoff::assemble::PlaceOptions demo_options(unsigned threads) {
+  standoff::assemble::PlaceOptions o;
   o.step_m = 1.0;
   for (int k = 0; k < 12; ++k) o.azimuths_rad.push_back(k * kPi / 6.0);
   o.threads = threads;
@@ -27,7 +27,7 @@ void BM_PlaceDemoDefault(benchmark::State& state) {
   const auto st = standoff::station::load_station(standoff::station::demo_station_text(), "demo-station.toml");
   const unsigned threads = static_cast<unsigned>(state.range(0));
   for (auto _ : state) {
-    auto in = standoff::station::place_input(st, demo_options(threads));
+    auto in = standoff::assemble::place_input(st, demo_options(threads));
     auto res = standoff::siting::place(in.setup);
     benchmark::DoNotOptimize(res);
     state.counters["placements"] = static_cast<double>(res.placements);
@@ -39,7 +39,7 @@ BENCHMARK(BM_PlaceDemoDefault)->Arg(1)->Arg(2)->Unit(benchmark::kMillisecond)->M
 void BM_PlaceDemoSetup(benchmark::State& state) {
   const auto st = standoff::station::load_station(standoff::station::demo_station_text(), "demo-station.toml");
   for (auto _ : state) {
-    auto in = standoff::station::place_input(st, demo_options(1));
+    auto in = standoff::assemble::place_input(st, demo_options(1));
     benchmark::DoNotOptimize(in);
   }
 }
@@ -49,7 +49,7 @@ BENCHMARK(BM_PlaceDemoSetup)->Unit(benchmark::kMillisecond)->Iterations(1)->Repe
 // (every zone cell's body line and the point of interest computed from the MoM currents).
 void per_candidate(benchmark::State& state, standoff::siting::PlaceMode mode) {
   static const auto st = standoff::station::load_station(standoff::station::demo_station_text(), "demo-station.toml");
-  static const auto in = standoff::station::place_input(st, demo_options(2));
+  static const auto in = standoff::assemble::place_input(st, demo_options(2));
   static const standoff::siting::PlaceEngine engine(in.setup);
   std::size_t n = 0;
   for (auto _ : state) {

@@ -5,7 +5,7 @@
 #include <string>
 
 #include "core/error.hpp"
-#include "em/grounds_toml.hpp"
+#include "io/grounds_toml.hpp"
 
 using namespace standoff;
 

@@ -8,7 +8,7 @@
 #include "em/builders.hpp"
 #include "em/fields.hpp"
 #include "exposure/evaluate.hpp"
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 
 namespace evaltest {
 

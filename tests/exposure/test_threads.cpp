@@ -9,8 +9,8 @@
 
 #include "core/parallel.hpp"
 #include "exposure/evaluate.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 namespace ex = standoff::exposure;
 namespace st = standoff::station;
@@ -20,7 +20,7 @@ namespace {
 ex::StationEvaluation run(unsigned threads) {
   standoff::parallel::set_default_threads(threads);
   const auto station = st::load_station(st::demo_station_text(), "demo-station.toml");
-  const auto built = st::build(station);
+  const auto built = standoff::assemble::build(station);
   ex::EvaluationOptions o;
   o.threads = threads;
   o.grid_spacing_m = 1.0;  // keeps the test fast; the code paths are those of the 0.5 m default

@@ -6,8 +6,8 @@
 #include <string_view>
 
 #include "core/error.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
   const std::string_view text(reinterpret_cast<const char*>(data), size);
@@ -15,9 +15,9 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     const standoff::station::Station st = standoff::station::load_station(text, "fuzz.toml");
     for (const auto& a : st.antennas)
       if (standoff::station::is_wire(a.kind)) return 0;
-    standoff::station::BuildOptions bo;
+    standoff::assemble::BuildOptions bo;
     bo.max_unknowns = 80;
-    const auto built = standoff::station::build(st, bo);
+    const auto built = standoff::assemble::build(st, bo);
     (void)built;
   } catch (const standoff::InputError&) {
   }

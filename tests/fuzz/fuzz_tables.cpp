@@ -4,10 +4,10 @@
 #include <string_view>
 
 #include "core/error.hpp"
-#include "em/grounds_toml.hpp"
-#include "limits/limits_toml.hpp"
-#include "power/power_tables_toml.hpp"
-#include "siting/clearances_toml.hpp"
+#include "io/grounds_toml.hpp"
+#include "io/limits_toml.hpp"
+#include "io/power_tables_toml.hpp"
+#include "io/clearances_toml.hpp"
 
 namespace {
 template <class F>

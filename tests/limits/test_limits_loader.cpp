@@ -5,7 +5,7 @@
 
 #include <string>
 
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::limits;

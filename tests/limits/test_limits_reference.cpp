@@ -14,7 +14,7 @@
 #include "core/constants.hpp"
 #include "core/quantity_parse.hpp"
 #include "limits/limits.hpp"
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::limits;

@@ -3,7 +3,7 @@
 #include <catch2/catch.hpp>
 
 #include "core/error.hpp"
-#include "power/power_tables_toml.hpp"
+#include "io/power_tables_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::power;

@@ -11,7 +11,7 @@
 #include "core/constants.hpp"
 #include "core/error.hpp"
 #include "power/feedline.hpp"
-#include "power/power_tables_toml.hpp"
+#include "io/power_tables_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::power;

@@ -9,8 +9,8 @@
 #include "cli_support.hpp"
 #include "core/error.hpp"
 #include "core/quantity_parse.hpp"
-#include "power/power_tables_toml.hpp"
-#include "station/station_toml.hpp"
+#include "io/power_tables_toml.hpp"
+#include "io/station_toml.hpp"
 
 using standoff::test::run_cli;
 

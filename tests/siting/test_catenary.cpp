@@ -11,7 +11,7 @@
 #include "core/constants.hpp"
 #include "siting/catenary.hpp"
 #include "siting/checks.hpp"
-#include "siting/clearances_toml.hpp"
+#include "io/clearances_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::siting;

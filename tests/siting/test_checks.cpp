@@ -8,7 +8,7 @@
 
 #include "core/constants.hpp"
 #include "siting/checks.hpp"
-#include "siting/clearances_toml.hpp"
+#include "io/clearances_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::siting;

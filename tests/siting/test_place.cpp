@@ -21,10 +21,10 @@
 #include <string>
 
 #include "power/feedline.hpp"
-#include "power/power_tables_toml.hpp"
-#include "station/placement.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "io/power_tables_toml.hpp"
+#include "assemble/placement.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 #include "exposure/evaluate.hpp"
 
 using namespace standoff;
@@ -80,8 +80,8 @@ polygon = [["-5 m", "-8 m"], ["35 m", "-8 m"], ["35 m", "0 m"], ["-5 m", "0 m"]]
 tier = "uncontrolled"
 )";
 
-station::PlaceOptions coarse(double step_m, std::vector<double> az_deg) {
-  station::PlaceOptions o;
+assemble::PlaceOptions coarse(double step_m, std::vector<double> az_deg) {
+  assemble::PlaceOptions o;
   o.step_m = step_m;
   for (double a : az_deg) o.azimuths_rad.push_back(a * kPi / 180.0);
   o.threads = 2;
@@ -93,7 +93,7 @@ station::PlaceOptions coarse(double step_m, std::vector<double> az_deg) {
 
 TEST_CASE("map reuse equals direct evaluation at sample placements, turned ones included", "[place]") {
   const auto st = station::load_station(site(kSymmetricZones, ""), "place-test.toml");
-  auto in = station::place_input(st, coarse(5.0, {0}));
+  auto in = assemble::place_input(st, coarse(5.0, {0}));
   const siting::PlaceEngine engine(in.setup);
   struct P { double x, y, az_deg; };
   // Placements moved and turned away from the solved one (15, 15, 90°).
@@ -115,9 +115,9 @@ TEST_CASE("map reuse equals direct evaluation at sample placements, turned ones 
 TEST_CASE("the current placement agrees with `evaluate` of the same station", "[place]") {
   // Outside the placement code: exposure::evaluate on the station as written.
   const auto st = station::load_station(site(kSymmetricZones, ""), "place-test.toml");
-  auto in = station::place_input(st, coarse(10.0, {90}));
+  auto in = assemble::place_input(st, coarse(10.0, {90}));
   const auto res = siting::place(in.setup);
-  const auto built = station::build(st);
+  const auto built = assemble::build(st);
   exposure::EvaluationOptions eo;
   eo.coarse_first = false;
   const auto ev = exposure::evaluate(built.input, eo);
@@ -130,7 +130,7 @@ TEST_CASE("the current placement agrees with `evaluate` of the same station", "[
 TEST_CASE("a mirror-symmetric site gives mirror-symmetric rankings", "[place]") {
   // Symmetric about x = 15 m: lot, zones, operating position, candidate grid; azimuth a mirrors to −a.
   const auto st = station::load_station(site(kSymmetricZones, ""), "place-test.toml");
-  auto in = station::place_input(st, coarse(3.0, {0, 45, 90, 135}));
+  auto in = assemble::place_input(st, coarse(3.0, {0, 45, 90, 135}));
   const auto res = siting::place(in.setup);
   REQUIRE(res.heat_nx > 2);
   int compared = 0;
@@ -165,7 +165,7 @@ polygon = [["30 m", "-10 m"], ["45 m", "-10 m"], ["45 m", "40 m"], ["30 m", "40 
 tier = "uncontrolled"
 )", "");
   const auto st0 = station::load_station(text, "place-test.toml");
-  auto in = station::place_input(st0, coarse(5.0, {90}));
+  auto in = assemble::place_input(st0, coarse(5.0, {90}));
   // Drop the garden: keep the neighbour only.
   std::erase_if(in.setup.zones, [](const siting::PlaceZone& z) { return z.name != "neighbour"; });
   const siting::PlaceEngine engine(in.setup);
@@ -196,7 +196,7 @@ voltage = "7.2 kV"
 voltage_reference = "phase-to-ground"
 )";
   const auto st = station::load_station(site(kSymmetricZones, "", line), "place-test.toml");
-  auto in = station::place_input(st, coarse(3.0, {0, 90}));
+  auto in = assemble::place_input(st, coarse(3.0, {0, 90}));
   const auto res = siting::place(in.setup);
   REQUIRE(!res.candidates.empty());
   const double radius = std::max(1.5 * 8.0, 8.0 + 3.048);
@@ -274,7 +274,7 @@ class = "twinlead-300"
 length = "20 m"
 )";
   const auto st = station::load_station(site(kSymmetricZones, feed), "place-test.toml");
-  auto in = station::place_input(st, coarse(10.0, {90}));
+  auto in = assemble::place_input(st, coarse(10.0, {90}));
   REQUIRE(in.line_class == "twinlead-300");
   const siting::PlaceEngine engine(in.setup);
   // 1.2 × plan distance from (15, 15) + the 8 m drop from the feed point to the ground.

@@ -13,7 +13,7 @@
 #include "cli_support.hpp"
 #include "../report/xml_check.hpp"
 #include "core/error.hpp"
-#include "station/station_toml.hpp"
+#include "io/station_toml.hpp"
 
 using standoff::test::run_cli;
 namespace fs = std::filesystem;

@@ -9,7 +9,7 @@
 #include "core/error.hpp"
 #include "siting/checks.hpp"
 #include "siting/clearances.hpp"
-#include "siting/clearances_toml.hpp"
+#include "io/clearances_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::siting;

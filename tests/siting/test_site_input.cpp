@@ -8,7 +8,7 @@
 
 #include "core/constants.hpp"
 #include "core/error.hpp"
-#include "siting/siting_toml.hpp"
+#include "io/siting_toml.hpp"
 
 using namespace standoff;
 using namespace standoff::siting;

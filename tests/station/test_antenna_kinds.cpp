@@ -10,11 +10,11 @@
 #include <string>
 
 #include "core/constants.hpp"
-#include "em/grounds_toml.hpp"
+#include "io/grounds_toml.hpp"
 #include "em/solve.hpp"
-#include "station/antenna_model.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "assemble/antenna_model.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 using namespace standoff;
 using Catch::Matchers::Contains;
@@ -39,7 +39,7 @@ mode = "ssb"
 std::complex<double> impedance_of(const std::string& antenna_body, double f_hz) {
   const auto st = station::load_station(station_with(antenna_body), "k.toml");
   std::vector<std::string> notes;
-  const em::Model m = station::antenna_model(st.antennas.at(0), f_hz, em::free_space(), notes);
+  const em::Model m = assemble::antenna_model(st.antennas.at(0), f_hz, em::free_space(), notes);
   return em::solve(m).impedance();
 }
 
@@ -107,7 +107,7 @@ TEST_CASE("kinds: a free-form wire list equals the builder's geometry and impeda
   const auto st = station::load_station(
       station_with("kind = \"loop\"\nposition = [\"0 m\", \"0 m\"]\nheight = \"10 m\"\nlength = \"21 m\"\n"), "k.toml");
   std::vector<std::string> notes;
-  const em::Model loop = station::antenna_model(st.antennas.at(0), kF, em::free_space(), notes);
+  const em::Model loop = assemble::antenna_model(st.antennas.at(0), kF, em::free_space(), notes);
   REQUIRE(loop.wires.size() == 4);
   for (const auto& w : loop.wires) CHECK((w.b - w.a).norm() == Approx(21.0 / 4.0));
 }
@@ -118,7 +118,7 @@ TEST_CASE("kinds: a sloping dipole has its ends at the stated heights and its st
                    "azimuth = \"0 deg\"\nlength = \"20 m\"\n"),
       "k.toml");
   std::vector<std::string> notes;
-  const em::Model m = station::antenna_model(st.antennas.at(0), kF, em::free_space(), notes);
+  const em::Model m = assemble::antenna_model(st.antennas.at(0), kF, em::free_space(), notes);
   REQUIRE(m.wires.size() == 1);
   CHECK(m.wires[0].a.z() == Approx(8.0));
   CHECK(m.wires[0].b.z() == Approx(14.0));
@@ -144,7 +144,7 @@ height = "8 m"
                    "length = \"10 m\"\n", "14.2 MHz", house),
       "k.toml");
   CHECK(st.antennas[0].inside_building == "house");
-  const auto built = station::build(st);
+  const auto built = assemble::build(st);
   bool zone = false;
   for (const auto& z : built.input.zones) zone |= z.name.find("house") != std::string::npos && z.floors_m.size() == 2;
   CHECK(zone);
@@ -178,7 +178,7 @@ TEST_CASE("ground names: the station file uses the ITU-R P.527 classes of `wire 
     std::string text = station_with("kind = \"gain\"\nposition = [\"0 m\", \"0 m\"]\nheight = \"10 m\"\ngain = \"0 dBi\"\n");
     text.replace(text.find("[site]\n"), 7, "[site]\nground = \"" + g + "\"\n");
     const auto st = station::load_station(text, "k.toml");
-    const em::Ground a = station::em_ground(st.site.ground);
+    const em::Ground a = assemble::em_ground(st.site.ground);
     const em::Ground b = em::ground_by_name(g, Where{"command line", 0, "--ground"});
     CHECK(a.kind == b.kind);
     CHECK(a.eps_r == b.eps_r);

@@ -11,9 +11,9 @@
 
 #include "../cli_support.hpp"
 #include "core/constants.hpp"
-#include "power/power_tables_toml.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "io/power_tables_toml.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 using namespace standoff;
 using Catch::Matchers::Contains;
@@ -41,8 +41,8 @@ mode = "cw"
 )";
 }
 
-double loss_db(const station::Station& st, const station::BuildOptions& bo = {}) {
-  const auto built = station::build(st, bo);
+double loss_db(const station::Station& st, const assemble::BuildOptions& bo = {}) {
+  const auto built = assemble::build(st, bo);
   const auto& chain = built.input.sources.at(0).chain;
   REQUIRE(chain.size() >= 2);
   // The power after the line over the power into it.
@@ -113,9 +113,9 @@ velocity_factor = 0.85
 material = "copper"
 )";
   const auto st = station::load_station(station_with_line("class = \"my-300\"\n"), "l.toml");
-  CHECK_THROWS_WITH(station::build(st), Contains("unknown feed-line class \"my-300\""));
-  const auto user = station::load_user_tables(dir.string());
-  station::BuildOptions bo;
+  CHECK_THROWS_WITH(assemble::build(st), Contains("unknown feed-line class \"my-300\""));
+  const auto user = assemble::load_user_tables(dir.string());
+  assemble::BuildOptions bo;
   bo.user_feedlines = &*user.feedlines;
   const auto inline_same = station::load_station(station_with_line(R"(conductor_diameter = "1.024 mm"
 spacing = "9.7 mm"
@@ -130,7 +130,7 @@ material = "copper"
   CHECK(standoff::test::run_cli({"field", file.string(), "--at", "5m,0m,2m"}).code == 2);
   std::ofstream(dir / "feedlines.toml") << "[[parallel_wire]]\nname = \"ladder-450\"\nconductor_diameter = \"1 mm\"\n"
                                            "spacing = \"25 mm\"\nvelocity_factor = 0.9\nmaterial = \"copper\"\n";
-  CHECK_THROWS_WITH(station::load_user_tables(dir.string()), Contains("built in"));
-  CHECK_THROWS_WITH(station::load_user_tables((dir / "nothing-here").string()), Contains("not a directory"));
+  CHECK_THROWS_WITH(assemble::load_user_tables(dir.string()), Contains("built in"));
+  CHECK_THROWS_WITH(assemble::load_user_tables((dir / "nothing-here").string()), Contains("not a directory"));
   fs::remove_all(dir);
 }

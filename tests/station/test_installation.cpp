@@ -14,8 +14,8 @@
 
 #include "../cli_support.hpp"
 #include "core/error.hpp"
-#include "station/installation.hpp"
-#include "station/station_toml.hpp"
+#include "assemble/installation.hpp"
+#include "io/station_toml.hpp"
 
 using namespace standoff;
 using standoff::test::run_cli;
@@ -86,7 +86,7 @@ TEST_CASE("installation: an antenna 1 m above a 7.2 kV line fails standing clear
   // 7.2 kV phase to ground is 10 ft = 3.05 m (29 CFR 1910.333(c)(3)(i)), so the wire (even before
   // its assumed sag swings) is 1 m away and must fail.
   const station::Station st = station::load_station(station_text("10 m", "0 m"), "t.toml");
-  const auto r = station::check_installation(st);
+  const auto r = assemble::check_installation(st);
   const siting::Check* c = find(r, "standing clearance", "dipole");
   REQUIRE(c != nullptr);
   CHECK(c->status == siting::CheckStatus::fail);
@@ -115,7 +115,7 @@ TEST_CASE("installation: an antenna 1 m above a 7.2 kV line fails standing clear
 
 TEST_CASE("installation: the same antenna 30 m from the line passes its clearances", "[cli]") {
   const station::Station st = station::load_station(station_text("10 m", "30 m"), "t.toml");
-  const auto r = station::check_installation(st);
+  const auto r = assemble::check_installation(st);
   const siting::Check* c = find(r, "standing clearance", "dipole");
   REQUIRE(c != nullptr);
   CHECK(c->status == siting::CheckStatus::pass);
@@ -188,7 +188,7 @@ length = "30 m"
 route = [["0 m", "30 m", "10 m"], ["0 m", "10 m", "1 m"]]
 )";
   const station::Station st = station::load_station(station_text("10 m", "30 m", ok), "t.toml");
-  const auto r = station::check_installation(st);
+  const auto r = assemble::check_installation(st);
   const siting::Check* c = find(r, "standing clearance", "coax: route leg 1");
   REQUIRE(c != nullptr);
   CHECK(c->status == siting::CheckStatus::pass);

@@ -13,9 +13,9 @@
 #include "exposure/evaluate.hpp"
 #include "exposure/remedies.hpp"
 #include "siting/checks.hpp"
-#include "siting/clearances_toml.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "io/clearances_toml.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 using namespace standoff;
 using Catch::Matchers::Contains;
@@ -26,9 +26,9 @@ const char* kOp = "20 m RTTY on the vertical";
 
 exposure::OperationResult evaluate_vertical(const std::string& text) {
   const auto st = station::load_station(text, "demo.toml");
-  station::BuildOptions bo;
+  assemble::BuildOptions bo;
   bo.only_operation = kOp;
-  const auto built = station::build(st, bo);
+  const auto built = assemble::build(st, bo);
   exposure::EvaluationOptions eo;
   eo.grid_spacing_m = 1.0;  // small grid: the test stays fast
   const auto ev = exposure::evaluate(built.input, eo);
@@ -106,7 +106,7 @@ TEST_CASE("unzoned parts of the property are reported, or evaluated with [site] 
   REQUIRE(at != std::string::npos);
   demo.replace(at, garden.size(), "polygon = [[\"0 m\", \"0 m\"], [\"40 m\", \"0 m\"], [\"40 m\", \"35 m\"], [\"0 m\", \"35 m\"]]\ntier = \"controlled\"");
   const auto st = station::load_station(demo, "demo.toml");
-  const auto built = station::build(st);
+  const auto built = assemble::build(st);
   REQUIRE(built.unzoned.size() == 1);
   // 40 m × 35 m = 1400 m² uncovered (closed-form area).
   CHECK_THAT(built.unzoned[0], Contains("not evaluated: no zone covers 1400 m²") && Contains("y 35 to 70 m"));
@@ -116,7 +116,7 @@ TEST_CASE("unzoned parts of the property are reported, or evaluated with [site] 
     return t;
   }();
   const auto st2 = station::load_station(with_default, "demo.toml");
-  const auto built2 = station::build(st2);
+  const auto built2 = assemble::build(st2);
   REQUIRE(built2.unzoned.size() == 1);
   CHECK_THAT(built2.unzoned[0], Contains("default_tier = uncontrolled"));
   bool zone = false;

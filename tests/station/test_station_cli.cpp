@@ -11,7 +11,7 @@
 #include "cli/run.hpp"
 #include "cli_support.hpp"
 #include "guide_example.hpp"
-#include "station/station_toml.hpp"
+#include "io/station_toml.hpp"
 
 namespace fs = std::filesystem;
 

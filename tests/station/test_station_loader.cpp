@@ -11,7 +11,7 @@
 #include <string>
 
 #include "core/error.hpp"
-#include "station/station_toml.hpp"
+#include "io/station_toml.hpp"
 #include "guide_example.hpp"
 
 using standoff::InputError;

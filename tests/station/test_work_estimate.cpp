@@ -5,8 +5,8 @@
 #include <string>
 
 #include "exposure/work_estimate.hpp"
-#include "station/sources.hpp"
-#include "station/station_toml.hpp"
+#include "assemble/sources.hpp"
+#include "io/station_toml.hpp"
 
 namespace {
 std::string demo_with_zone(const std::string& side) {
@@ -20,7 +20,7 @@ std::string demo_with_zone(const std::string& side) {
 }
 double cells_for(const std::string& text) {
   const auto st = standoff::station::load_station(text, "estimate.toml");
-  const auto built = standoff::station::build(st, {});
+  const auto built = standoff::assemble::build(st, {});
   return standoff::exposure::estimated_grid_cells(built.input, 0.5);
 }
 }  // namespace

@@ -1,10 +1,10 @@
-#include "siting/clearances_toml.hpp"
+#include "io/clearances_toml.hpp"
 
 #include <toml++/toml.h>
 
 #include "io/embedded.hpp"
 #include "siting/siting_units.hpp"
-#include "siting/toml_fields.hpp"
+#include "io/toml_fields.hpp"
 
 namespace standoff::siting {
 namespace {

@@ -11,7 +11,7 @@
 #include "siting/checks.hpp"
 #include "station/station.hpp"
 
-namespace standoff::station {
+namespace standoff::assemble {
 
 // Tolerances for a [[span]] that describes an antenna wire (common practice (no source): within
 // the length of an end insulator and its rope loop).
@@ -25,10 +25,10 @@ inline constexpr double kAssumedSagFraction = 0.05;
 // st.installation_assumptions with what was assumed for them. InputError (file:line:field) when a
 // [[span]] naming an antenna disagrees with its wires, a [[span]] or route is longer than its feed
 // line, or a span names an antenna or feed line that does not exist. Called by load_station.
-void derive_installation(Station& st);
+void derive_installation(station::Station& st);
 
 // The installation-safety checks of a loaded station (every power line against every wire,
 // route and support), with the implied elements' assumptions added.
-siting::LinesReport check_installation(const Station& st);
+siting::LinesReport check_installation(const station::Station& st);
 
-}  // namespace standoff::station
+}  // namespace standoff::assemble

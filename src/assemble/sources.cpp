@@ -1,4 +1,4 @@
-#include "station/sources.hpp"
+#include "assemble/sources.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -15,16 +15,16 @@
 #include "core/suggest.hpp"
 #include "em/builders.hpp"
 #include "em/fields.hpp"
-#include "em/grounds_toml.hpp"
+#include "io/grounds_toml.hpp"
 #include "em/near_field.hpp"
 #include "exposure/aperture.hpp"
 #include "exposure/screening.hpp"
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 #include "power/chain.hpp"
-#include "power/power_tables_toml.hpp"
-#include "station/antenna_model.hpp"
+#include "io/power_tables_toml.hpp"
+#include "assemble/antenna_model.hpp"
 
-namespace standoff::station {
+namespace standoff::assemble {
 
 namespace {
 
@@ -36,7 +36,7 @@ std::size_t index_of(const std::vector<T>& v, const T* p) {
   return static_cast<std::size_t>(p - v.data());
 }
 
-Where where_in(const Station& st, const std::string& table, std::size_t index, int line, const std::string& key) {
+Where where_in(const station::Station& st, const std::string& table, std::size_t index, int line, const std::string& key) {
   return Where{st.file, line, table + "[" + std::to_string(index) + "]." + key};
 }
 
@@ -102,8 +102,8 @@ double max_extent(const em::Model& m) {
 // (an ideal transformer: Z/n). An end-fed wire without a stated ratio is taken with the usual
 // 49:1 unit (common practice (no source)) rather than unmatched, which would over-state the line
 // loss and so under-state the power radiated.
-std::complex<double> line_side_impedance(const Antenna& a, std::complex<double> z, std::vector<std::string>& notes) {
-  if (a.kind != AntennaKind::end_fed_half_wave) return z;
+std::complex<double> line_side_impedance(const station::Antenna& a, std::complex<double> z, std::vector<std::string>& notes) {
+  if (a.kind != station::AntennaKind::end_fed_half_wave) return z;
   const double n = a.matching_ratio.value_or(49.0);
   notes.push_back("end-fed matching unit " + significant(n) + ":1" + (a.matching_ratio ? "" : " assumed (not stated)") +
                   ": the line sees the wire's feed impedance / " + significant(n) +
@@ -121,13 +121,13 @@ struct Solved {
 
 // The zones where people can be, each without its holes and without the keep-out areas that
 // keep its tier out (a keep-out area is not evaluated for the people it keeps out).
-void add_people_zones(const Station& st, exposure::EvaluationInput& in) {
+void add_people_zones(const station::Station& st, exposure::EvaluationInput& in) {
   for (const auto& z : st.site.zones) {
-    if (z.kind != ZoneKind::people) continue;
+    if (z.kind != station::ZoneKind::people) continue;
     exposure::ZoneInput zi{z.name, z.tier, z.polygon, z.floors_m, z.holes};
     for (const auto& k : st.site.zones) {
-      if (k.kind != ZoneKind::keep_out) continue;
-      if (k.keeps_out == KeepsOut::uncontrolled && z.tier != limits::Tier::uncontrolled) continue;
+      if (k.kind != station::ZoneKind::keep_out) continue;
+      if (k.keeps_out == station::KeepsOut::uncontrolled && z.tier != limits::Tier::uncontrolled) continue;
       if (geometry::rings_overlap(k.polygon, z.polygon)) zi.holes.push_back(k.polygon);
     }
     in.zones.push_back(std::move(zi));
@@ -137,9 +137,9 @@ void add_people_zones(const Station& st, exposure::EvaluationInput& in) {
 // The parts of the property (its boundary) that no zone and no keep-out area covers: reported as
 // not evaluated, or evaluated at ground level with [site] default_tier. Slivers under 0.5 m² (a
 // grid cell's share of rounding) are ignored.
-void add_unzoned(const Station& st, exposure::EvaluationInput& in, std::vector<std::string>& notes) {
+void add_unzoned(const station::Station& st, exposure::EvaluationInput& in, std::vector<std::string>& notes) {
   std::vector<geometry::Area> covered;
-  for (const auto& z : st.site.zones) covered.push_back(geometry::Area{z.polygon, z.kind == ZoneKind::people ? z.holes : std::vector<Polygon>{}});
+  for (const auto& z : st.site.zones) covered.push_back(geometry::Area{z.polygon, z.kind == station::ZoneKind::people ? z.holes : std::vector<exposure::Polygon>{}});
   int n = 0;
   for (const auto& part : geometry::difference(st.site.boundary, covered)) {
     const double a = geometry::area(part);
@@ -164,7 +164,7 @@ void add_unzoned(const Station& st, exposure::EvaluationInput& in, std::vector<s
 // An attic or indoor antenna: the building does not shield, so its floors are evaluated. When no
 // zone covers the building's floors, they are added as an uncontrolled zone (the most protective
 // tier: anyone may be indoors).
-void add_indoor_zones(const Station& st, exposure::EvaluationInput& in) {
+void add_indoor_zones(const station::Station& st, exposure::EvaluationInput& in) {
   std::set<std::string> done;
   for (const auto& a : st.antennas) {
     if (a.inside_building.empty() || !done.insert(a.inside_building).second) continue;
@@ -220,7 +220,7 @@ UserTables load_user_tables(const std::string& dir) {
   return t;
 }
 
-Built build(const Station& st, const BuildOptions& options) {
+Built build(const station::Station& st, const BuildOptions& options) {
   Built out;
   out.standard = options.standard ? *options.standard : st.standard.value_or(limits::Standard::fcc);
   const limits::LimitTable& table = limits::builtin_limit_table_ref(out.standard);
@@ -241,12 +241,12 @@ Built build(const Station& st, const BuildOptions& options) {
 
   bool found = !options.only_operation;
   for (std::size_t oi = 0; oi < st.operations.size(); ++oi) {
-    const Operation& op = st.operations[oi];
+    const station::Operation& op = st.operations[oi];
     if (options.only_operation && op.name != *options.only_operation) continue;
     found = true;
-    const Transmitter& tx = *st.transmitter(op.transmitter);
-    const Antenna& ant = *st.antenna(op.antenna);
-    const FeedLine* fl = op.feed_line.empty() ? nullptr : st.feed_line(op.feed_line);
+    const station::Transmitter& tx = *st.transmitter(op.transmitter);
+    const station::Antenna& ant = *st.antenna(op.antenna);
+    const station::FeedLine* fl = op.feed_line.empty() ? nullptr : st.feed_line(op.feed_line);
     const double f_hz = op.frequency.value();
     const double lambda = constants::c0 / f_hz;
 
@@ -315,7 +315,7 @@ Built build(const Station& st, const BuildOptions& options) {
     double size_m = 0.0;
     std::optional<exposure::ApertureRegions> dish;
     std::vector<std::pair<Eigen::Vector3d, Eigen::Vector3d>> wires;
-    if (is_wire(ant.kind)) {
+    if (station::is_wire(ant.kind)) {
       auto key = std::make_pair(ant.name, f_hz);
       auto it = solved.find(key);
       if (it == solved.end()) {
@@ -348,7 +348,7 @@ Built build(const Station& st, const BuildOptions& options) {
         src.footprint.push_back({{w.a.x(), w.a.y()}, {w.b.x(), w.b.y()}});
       }
       src.method = "detailed (MoM)";
-    } else if (ant.kind == AntennaKind::aperture) {
+    } else if (ant.kind == station::AntennaKind::aperture) {
       exposure::Aperture ap{units::metres(*ant.diameter_m), units::Fraction{ant.efficiency.value_or(0.55)}};
       if (!ant.efficiency) src.notes.push_back("aperture efficiency not stated: 55 % assumed");
       size_m = *ant.diameter_m;
@@ -457,4 +457,4 @@ Built build(const Station& st, const BuildOptions& options) {
   return out;
 }
 
-}  // namespace standoff::station
+}  // namespace standoff::assemble

@@ -1,6 +1,6 @@
-#include "station/placement.hpp"
+#include "assemble/placement.hpp"
 
-#include "station/installation.hpp"
+#include "assemble/installation.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -12,12 +12,12 @@
 #include "core/number_text.hpp"
 #include "core/constants.hpp"
 #include "em/fields.hpp"
-#include "power/power_tables_toml.hpp"
-#include "siting/clearances_toml.hpp"
+#include "io/power_tables_toml.hpp"
+#include "io/clearances_toml.hpp"
 #include "siting/place_parallel.hpp"
-#include "station/sources.hpp"
+#include "assemble/sources.hpp"
 
-namespace standoff::station {
+namespace standoff::assemble {
 
 namespace {
 
@@ -68,23 +68,23 @@ bool half_turn_symmetric(const std::vector<std::pair<Eigen::Vector3d, Eigen::Vec
 
 }  // namespace
 
-PlaceInput place_input(const Station& st, const PlaceOptions& o) {
+PlaceInput place_input(const station::Station& st, const PlaceOptions& o) {
   PlaceInput pi;
   siting::PlaceSetup& s = pi.setup;
 
   // The antenna.
-  const Antenna* ant = nullptr;
+  const station::Antenna* ant = nullptr;
   if (o.antenna) {
     ant = st.antenna(*o.antenna);
     if (!ant) throw InputError(Where{"command line", 0, "--antenna"}, "no antenna named \"" + *o.antenna + "\" in " + st.file);
-    if (!is_wire(ant->kind))
+    if (!station::is_wire(ant->kind))
       throw InputError(Where{"command line", 0, "--antenna"},
                        "\"" + ant->name + "\" is a " + to_string(ant->kind) +
                            " (a screening model): the placement search needs a wire antenna modelled by the method of moments");
   } else {
     for (const auto& a : st.antennas)
-      if (is_wire(a.kind) && std::any_of(st.operations.begin(), st.operations.end(),
-                                         [&](const Operation& op) { return op.antenna == a.name; })) {
+      if (station::is_wire(a.kind) && std::any_of(st.operations.begin(), st.operations.end(),
+                                         [&](const station::Operation& op) { return op.antenna == a.name; })) {
         ant = &a;
         break;
       }
@@ -197,7 +197,7 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
     double top = ant->height_m;
     for (const auto& [a, b] : pi.wires) top = std::max({top, a.z(), b.z()});
     std::vector<Eigen::Vector2d> at;
-    if (ant->kind == AntennaKind::dipole || ant->kind == AntennaKind::inverted_v) {
+    if (ant->kind == station::AntennaKind::dipole || ant->kind == station::AntennaKind::inverted_v) {
       for (const auto& [a, b] : s.footprint) {
         for (const auto& e : {a, b}) {
           bool dup = false;
@@ -205,7 +205,7 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
           if (!dup && (e - s.origin).norm() > 0.5) at.push_back(e);
         }
       }
-      if (ant->kind == AntennaKind::inverted_v) at = {s.origin};
+      if (ant->kind == station::AntennaKind::inverted_v) at = {s.origin};
     } else {
       at = {s.origin};
     }
@@ -247,7 +247,7 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
     op.limit[0] = lim.controlled;
     op.limit[1] = lim.uncontrolled;
     for (int t = 0; t < 2; ++t) op.tx_fraction[t] = src.pep_w > 0 ? det.tx_average_w[t] / src.pep_w : 0.0;
-    const FeedLine* fl = st.operation(src.name)->feed_line.empty() ? nullptr : st.feed_line(st.operation(src.name)->feed_line);
+    const station::FeedLine* fl = st.operation(src.name)->feed_line.empty() ? nullptr : st.feed_line(st.operation(src.name)->feed_line);
     if (override_line) op.line = *override_line;
     else if (det.line) op.line = det.line->line;
     if (fl) op.current_length_m = fl->length.value();
@@ -281,7 +281,7 @@ PlaceInput place_input(const Station& st, const PlaceOptions& o) {
   return pi;
 }
 
-void apply_current_installation(const Station& st, const PlaceInput& in, siting::PlaceResult& res) {
+void apply_current_installation(const station::Station& st, const PlaceInput& in, siting::PlaceResult& res) {
   // The names of what belongs to the antenna: its own wires, the spans that describe them or its
   // feed lines, and the supports those spans hang from.
   std::set<std::string> subjects;
@@ -315,4 +315,4 @@ void apply_current_installation(const Station& st, const PlaceInput& in, siting:
   }
 }
 
-}  // namespace standoff::station
+}  // namespace standoff::assemble

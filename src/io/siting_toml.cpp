@@ -1,4 +1,4 @@
-#include "siting/siting_toml.hpp"
+#include "io/siting_toml.hpp"
 
 #include <cmath>
 #include <set>
@@ -8,9 +8,9 @@
 
 #include "core/constants.hpp"
 #include "core/quantity_parse.hpp"
-#include "siting/clearances_toml.hpp"
+#include "io/clearances_toml.hpp"
 #include "siting/siting_units.hpp"
-#include "siting/toml_fields.hpp"
+#include "io/toml_fields.hpp"
 
 namespace standoff::siting {
 namespace {

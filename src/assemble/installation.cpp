@@ -1,4 +1,4 @@
-#include "station/installation.hpp"
+#include "assemble/installation.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -9,10 +9,10 @@
 #include "core/constants.hpp"
 #include "core/error.hpp"
 #include "em/builders.hpp"
-#include "siting/clearances_toml.hpp"
-#include "station/antenna_model.hpp"
+#include "io/clearances_toml.hpp"
+#include "assemble/antenna_model.hpp"
 
-namespace standoff::station {
+namespace standoff::assemble {
 
 namespace {
 
@@ -26,7 +26,7 @@ double plan_length(const Vec3& a, const Vec3& b) { return std::hypot(b.x() - a.x
 std::string point_text(const Vec3& v) { return fmt::format("({:.2f}, {:.2f}, {:.2f}) m", v.x(), v.y(), v.z()); }
 
 // A wire of an antenna's model, as a span.
-siting::Span wire_span(const Antenna& a, const em::Wire& w, std::size_t index, bool rigid) {
+siting::Span wire_span(const station::Antenna& a, const em::Wire& w, std::size_t index, bool rigid) {
   siting::Span s;
   s.name = a.name + ": " + (w.name.empty() ? "wire " + std::to_string(index + 1) : w.name);
   s.kind = siting::SpanKind::antenna;
@@ -50,17 +50,17 @@ siting::Span wire_span(const Antenna& a, const em::Wire& w, std::size_t index, b
 }
 
 // Whether a wire of this antenna kind is a rigid element rather than a hanging wire.
-bool rigid_wire(const Antenna& a, const em::Wire& w) {
-  if (a.kind == AntennaKind::yagi) return true;
-  if (a.kind == AntennaKind::vertical) return w.name == "radiator";
+bool rigid_wire(const station::Antenna& a, const em::Wire& w) {
+  if (a.kind == station::AntennaKind::yagi) return true;
+  if (a.kind == station::AntennaKind::vertical) return w.name == "radiator";
   return false;
 }
 
 // The screening antennas (no wires): a rigid vertical piece for their radiating size.
-std::optional<siting::Span> body_span(const Antenna& a) {
+std::optional<siting::Span> body_span(const station::Antenna& a) {
   double half = 0.005;  // size not stated: a point (1 cm)
-  if (a.kind == AntennaKind::collinear && a.length_m) half = *a.length_m / 2.0;
-  if (a.kind == AntennaKind::aperture && a.diameter_m) half = *a.diameter_m / 2.0;
+  if (a.kind == station::AntennaKind::collinear && a.length_m) half = *a.length_m / 2.0;
+  if (a.kind == station::AntennaKind::aperture && a.diameter_m) half = *a.diameter_m / 2.0;
   siting::Span s;
   s.name = a.name + ": antenna body";
   s.kind = siting::SpanKind::antenna;
@@ -75,9 +75,9 @@ std::optional<siting::Span> body_span(const Antenna& a) {
   return s;
 }
 
-bool is_point_mounted(AntennaKind k) {
-  return k == AntennaKind::vertical || k == AntennaKind::yagi || k == AntennaKind::collinear ||
-         k == AntennaKind::gain_only || k == AntennaKind::aperture || k == AntennaKind::inverted_v;
+bool is_point_mounted(station::AntennaKind k) {
+  return k == station::AntennaKind::vertical || k == station::AntennaKind::yagi || k == station::AntennaKind::collinear ||
+         k == station::AntennaKind::gain_only || k == station::AntennaKind::aperture || k == station::AntennaKind::inverted_v;
 }
 
 const siting::Support* support_near(const std::vector<siting::Support>& supports, double x, double y) {
@@ -100,7 +100,7 @@ siting::Support implied_support(const std::string& name, double x, double y, dou
 
 double span_length(const siting::Span& s) { return siting::span_shape(s).length_m(); }
 
-Where span_where(const Station& st, std::size_t i, const siting::Span& s, const std::string& key) {
+Where span_where(const station::Station& st, std::size_t i, const siting::Span& s, const std::string& key) {
   return Where{st.file, s.line, "span[" + std::to_string(i) + "]." + key};
 }
 
@@ -122,16 +122,16 @@ std::optional<std::size_t> match_wire(const siting::Span& user, const std::vecto
 
 }  // namespace
 
-void derive_installation(Station& st) {
+void derive_installation(station::Station& st) {
   siting::SiteElements& inst = st.installation;
   std::vector<std::string>& notes = st.installation_assumptions;
   std::vector<siting::Span> derived;     // antenna wires
   std::vector<siting::Support> implied;  // supports the antennas need and the file does not describe
 
   for (std::size_t ai = 0; ai < st.antennas.size(); ++ai) {
-    const Antenna& a = st.antennas[ai];
+    const station::Antenna& a = st.antennas[ai];
     std::vector<siting::Span> mine;
-    if (is_wire(a.kind)) {
+    if (station::is_wire(a.kind)) {
       std::vector<std::string> ignored;
       em::Model m;
       try {
@@ -153,7 +153,7 @@ void derive_installation(Station& st) {
         reach = std::max(reach, std::hypot(e.x() - a.position.x_m, e.y() - a.position.y_m));
     }
     if (is_point_mounted(a.kind) && !support_near(inst.supports, a.position.x_m, a.position.y_m)) {
-      const double overhang = a.kind == AntennaKind::inverted_v ? 0.0 : reach;
+      const double overhang = a.kind == station::AntennaKind::inverted_v ? 0.0 : reach;
       implied.push_back(implied_support(a.name + ": mast (implied)", a.position.x_m, a.position.y_m, top, overhang,
                                         "the support antenna \"" + a.name + "\" stands on"));
     }
@@ -176,7 +176,7 @@ void derive_installation(Station& st) {
   for (std::size_t i = 0; i < inst.spans.size(); ++i) {
     siting::Span& sp = inst.spans[i];
     if (sp.feed_line) {
-      const FeedLine* fl = st.feed_line(*sp.feed_line);
+      const station::FeedLine* fl = st.feed_line(*sp.feed_line);
       if (!fl) throw InputError(span_where(st, i, sp, "feed_line"), "unknown feed line \"" + *sp.feed_line + "\"");
       const double len = span_length(sp);
       if (len > fl->length.value() + 0.01)
@@ -187,7 +187,7 @@ void derive_installation(Station& st) {
     }
     if (sp.kind != siting::SpanKind::antenna) continue;
     if (sp.antenna) {
-      const Antenna* a = st.antenna(*sp.antenna);
+      const station::Antenna* a = st.antenna(*sp.antenna);
       if (!a) throw InputError(span_where(st, i, sp, "antenna"), "unknown antenna \"" + *sp.antenna + "\"");
     }
     const auto k = match_wire(sp, derived, sp.antenna);
@@ -232,7 +232,7 @@ void derive_installation(Station& st) {
 
   // Feed-line routes: each leg a span of kind feed_line.
   for (std::size_t i = 0; i < st.feed_lines.size(); ++i) {
-    const FeedLine& fl = st.feed_lines[i];
+    const station::FeedLine& fl = st.feed_lines[i];
     if (fl.route.empty()) continue;
     double total = 0.0;
     for (std::size_t k = 0; k + 1 < fl.route.size(); ++k) {
@@ -272,10 +272,10 @@ void derive_installation(Station& st) {
   }
 }
 
-siting::LinesReport check_installation(const Station& st) {
+siting::LinesReport check_installation(const station::Station& st) {
   siting::LinesReport r = siting::run_checks(st.installation, siting::builtin_clearance_tables());
   r.assumptions.insert(r.assumptions.end(), st.installation_assumptions.begin(), st.installation_assumptions.end());
   return r;
 }
 
-}  // namespace standoff::station
+}  // namespace standoff::assemble

@@ -1,4 +1,4 @@
-#include "station/antenna_model.hpp"
+#include "assemble/antenna_model.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -10,7 +10,7 @@
 #include "core/error.hpp"
 #include "em/builders.hpp"
 
-namespace standoff::station {
+namespace standoff::assemble {
 
 namespace {
 // A straight wire from `a` to `b` fed at fraction `feed` along it (sloping and off-centre dipoles).
@@ -29,7 +29,7 @@ em::Model straight_wire(double f_hz, const Eigen::Vector3d& a, const Eigen::Vect
 Eigen::Vector3d along(double az) { return Eigen::Vector3d(std::sin(az), std::cos(az), 0.0); }
 
 // Ends of a wire of length L centred (in plan) at the antenna's position, rising from h1 to h2.
-std::pair<Eigen::Vector3d, Eigen::Vector3d> sloping_ends(const Antenna& a, double h1, double h2) {
+std::pair<Eigen::Vector3d, Eigen::Vector3d> sloping_ends(const station::Antenna& a, double h1, double h2) {
   const double L = *a.length_m;
   const double plan = std::sqrt(std::max(0.0, L * L - (h2 - h1) * (h2 - h1)));
   const Eigen::Vector3d c(a.position.x_m, a.position.y_m, 0.0);
@@ -39,7 +39,7 @@ std::pair<Eigen::Vector3d, Eigen::Vector3d> sloping_ends(const Antenna& a, doubl
 
 }  // namespace
 
-double geometry_frequency_hz(const Station& st, const Antenna& a) {
+double geometry_frequency_hz(const station::Station& st, const station::Antenna& a) {
   double f = 0.0;
   for (const auto& op : st.operations)
     if (op.antenna == a.name && (f == 0.0 || op.frequency.value() < f)) f = op.frequency.value();
@@ -48,25 +48,25 @@ double geometry_frequency_hz(const Station& st, const Antenna& a) {
   return 7.0e6;
 }
 
-em::Model antenna_model(const Antenna& a, double f_hz, const em::Ground& ground, std::vector<std::string>& notes) {
+em::Model antenna_model(const station::Antenna& a, double f_hz, const em::Ground& ground, std::vector<std::string>& notes) {
   em::Placement at{a.position.x_m, a.position.y_m, a.height_m, a.azimuth_rad};
   em::Conductor wire;
   wire.radius_m = a.wire_diameter_m.value_or(0.002) / 2.0;
   if (!a.wire_diameter_m) notes.push_back("wire diameter not stated: 2 mm assumed");
   switch (a.kind) {
-    case AntennaKind::dipole:
+    case station::AntennaKind::dipole:
       if (a.end_heights_m) {
         const auto [p, q] = sloping_ends(a, a.end_heights_m->first, a.end_heights_m->second);
         return straight_wire(f_hz, p, q, 0.5, wire, ground, "dipole");
       }
       return em::dipole(f_hz, *a.length_m, at, wire, ground);
-    case AntennaKind::ocf_dipole: {
+    case station::AntennaKind::ocf_dipole: {
       const double h1 = a.end_heights_m ? a.end_heights_m->first : a.height_m;
       const double h2 = a.end_heights_m ? a.end_heights_m->second : a.height_m;
       const auto [p, q] = sloping_ends(a, h1, h2);
       return straight_wire(f_hz, p, q, *a.feed_fraction, wire, ground, "dipole");
     }
-    case AntennaKind::end_fed_half_wave: {
+    case station::AntennaKind::end_fed_half_wave: {
       // Radiator from the feed point along the azimuth (rising to end_height); the matching unit
       // is the feed itself (its ratio is applied to the impedance the line sees: station/sources.cpp).
       const double L = *a.length_m;
@@ -83,16 +83,16 @@ em::Model antenna_model(const Antenna& a, double f_hz, const em::Ground& ground,
                          "the counterpoise, continuing the wire's line behind the feed, would go below ground");
       return straight_wire(f_hz, start, feed + L * dir, cp / (L + cp), wire, ground, "end-fed wire");
     }
-    case AntennaKind::folded_dipole: {
+    case station::AntennaKind::folded_dipole: {
       em::Conductor wire2 = wire;
       if (a.second_wire_diameter_m) wire2.radius_m = *a.second_wire_diameter_m / 2.0;
       return em::folded_dipole(f_hz, *a.length_m, *a.spacing_m, at, wire, wire2, ground);
     }
-    case AntennaKind::loop: return em::horizontal_loop(f_hz, *a.length_m, a.sides, at, wire, ground);
-    case AntennaKind::wires: {
+    case station::AntennaKind::loop: return em::horizontal_loop(f_hz, *a.length_m, a.sides, at, wire, ground);
+    case station::AntennaKind::wires: {
       std::vector<em::Wire> ws;
       for (std::size_t i = 0; i < a.free_wires.size(); ++i) {
-        const FreeWire& fw = a.free_wires[i];
+        const station::FreeWire& fw = a.free_wires[i];
         em::Wire w;
         w.a = Eigen::Vector3d(fw.from.x_m, fw.from.y_m, fw.from.z_m);
         w.b = Eigen::Vector3d(fw.to.x_m, fw.to.y_m, fw.to.z_m);
@@ -104,16 +104,16 @@ em::Model antenna_model(const Antenna& a, double f_hz, const em::Ground& ground,
                            {em::Feed{static_cast<std::size_t>(a.feed_wire), a.feed_fraction.value_or(0.5), {1.0, 0.0}}},
                            ground);
     }
-    case AntennaKind::inverted_v:
+    case station::AntennaKind::inverted_v:
       return em::inverted_v(f_hz, *a.length_m, (constants::pi - *a.apex_angle_rad) / 2.0, at, wire, ground);
-    case AntennaKind::vertical:
+    case station::AntennaKind::vertical:
       if (a.height_m <= 0.0) {
         notes.push_back("ground-mounted vertical: its radial system is modelled as a perfect ground plane "
                         "(usually conservative above ground)");
         return em::monopole(f_hz, *a.length_m, at, wire, em::perfect_ground());
       }
       return em::monopole(f_hz, *a.length_m, at, wire, ground, a.radials, a.radial_length_m.value_or(0.0), 0.0);
-    case AntennaKind::yagi: {
+    case station::AntennaKind::yagi: {
       const em::YagiSpec spec = em::default_yagi(*a.band_centre_hz, *a.elements);
       notes.push_back("Yagi element lengths and spacings scaled from the design frequency " +
                       significant(*a.band_centre_hz / 1e6) + " MHz (common practice)");
@@ -142,11 +142,11 @@ std::string model_error_key(const InputError& e) {
 }
 }  // namespace
 
-std::string antenna_key_for(const Antenna& a, const InputError& e) {
+std::string antenna_key_for(const station::Antenna& a, const InputError& e) {
   std::string key = model_error_key(e);
-  if (a.kind == AntennaKind::yagi && key == "length") key = "band_centre";  // a Yagi is sized from it
+  if (a.kind == station::AntennaKind::yagi && key == "length") key = "band_centre";  // a Yagi is sized from it
   return key;
 }
 
 
-}  // namespace standoff::station
+}  // namespace standoff::assemble

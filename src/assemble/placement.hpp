@@ -9,7 +9,7 @@
 #include "siting/place.hpp"
 #include "station/station.hpp"
 
-namespace standoff::station {
+namespace standoff::assemble {
 
 struct PlaceOptions {
   std::optional<std::string> antenna;       // default: the first wire antenna with an operation
@@ -38,12 +38,12 @@ struct PlaceInput {
 // Throws InputError (file:line:field or the command-line option) for an unknown or non-wire
 // antenna, an antenna without operations, an unknown line class, or a line without data at an
 // operation's frequency.
-PlaceInput place_input(const Station& station, const PlaceOptions& options);
+PlaceInput place_input(const station::Station& station, const PlaceOptions& options);
 
 // The search moves the antenna's wires and supports, not its feed-line route: so that `current`
 // never reads clear where `standoff lines` fails, the station's own installation checks (as it
 // stands) that concern this antenna, its supports or its feed lines are applied to `current` —
 // a failure there sets its clearance to failed and its permitted PEP to 0.
-void apply_current_installation(const Station& station, const PlaceInput& in, siting::PlaceResult& result);
+void apply_current_installation(const station::Station& station, const PlaceInput& in, siting::PlaceResult& result);
 
-}  // namespace standoff::station
+}  // namespace standoff::assemble

@@ -12,10 +12,10 @@
 #include "exposure/evaluate.hpp"
 #include "limits/limits.hpp"
 #include "power/chain.hpp"
-#include "power/power_tables_toml.hpp"
+#include "io/power_tables_toml.hpp"
 #include "station/station.hpp"
 
-namespace standoff::station {
+namespace standoff::assemble {
 
 struct BuildOptions {
   std::optional<limits::Standard> standard;  // overrides the station file's standard (--standard)
@@ -58,10 +58,10 @@ struct Built {
 // Throws InputError naming the station file, line and field for anything the tables or the antenna
 // model refuse (unknown mode or line class, frequency outside the limit table or the line's data,
 // antenna geometry the MoM engine cannot model).
-Built build(const Station& station, const BuildOptions& options = {});
+Built build(const station::Station& station, const BuildOptions& options = {});
 
 // em ground for a station ground name (tables/grounds.toml: ITU-R P.527 classes; "average" is the
 // antenna literature's convention 0.005 S/m, εr 13 — MOM-NOTES §4; perfect; free-space).
 em::Ground em_ground(const std::string& name);
 
-}  // namespace standoff::station
+}  // namespace standoff::assemble

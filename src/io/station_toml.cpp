@@ -1,4 +1,4 @@
-#include "station/station_toml.hpp"
+#include "io/station_toml.hpp"
 
 #include <algorithm>
 #include <charconv>
@@ -15,11 +15,11 @@
 #include "core/error_list.hpp"
 #include "core/suggest.hpp"
 #include "core/quantity_parse.hpp"
-#include "em/grounds_toml.hpp"
+#include "io/grounds_toml.hpp"
 #include "io/embedded.hpp"
-#include "siting/clearances_toml.hpp"
-#include "siting/siting_toml.hpp"
-#include "station/installation.hpp"
+#include "io/clearances_toml.hpp"
+#include "io/siting_toml.hpp"
+#include "assemble/installation.hpp"
 
 namespace standoff::station {
 namespace {
@@ -913,7 +913,7 @@ Station load_station(std::string_view toml_text, const std::string& file) {
   errs.throw_if_any();
   // ... plus every wire, route and support the antennas and feed lines imply (one geometry for the
   // exposure model and the power-line checks).
-  derive_installation(st);
+  assemble::derive_installation(st);
 
   return st;
 }

@@ -1,4 +1,4 @@
-#include "em/grounds_toml.hpp"
+#include "io/grounds_toml.hpp"
 
 #include <cmath>
 

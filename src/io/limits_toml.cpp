@@ -1,4 +1,4 @@
-#include "limits/limits_toml.hpp"
+#include "io/limits_toml.hpp"
 
 #include <algorithm>
 #include <array>

@@ -1,4 +1,4 @@
-#include "power/power_tables_toml.hpp"
+#include "io/power_tables_toml.hpp"
 
 #include <algorithm>
 #include <cmath>
